@@ -1,0 +1,86 @@
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import type { Knex } from 'knex';
+import type { AppConfig } from './config';
+import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { loadUser } from './middleware/require-session';
+import { sessionMiddleware } from './middleware/session';
+import { authRoutes } from './routes/auth';
+import { healthRoutes } from './routes/health';
+import { projectRoutes } from './routes/projects';
+import { AuthService } from './services/auth-service';
+
+export const JSON_BODY_LIMIT = '200kb';
+
+export interface AppDeps {
+  config: AppConfig;
+  db: Knex;
+}
+
+export interface FanlightApp {
+  app: Express;
+  /** Stops timers the app owns (the session store's cleanup), so a test process can exit. */
+  close(): void;
+}
+
+export function createApp({ config, db }: AppDeps): FanlightApp {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.trustProxy);
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: true,
+        directives: {
+          // Our workers instantiate the FFT's WebAssembly; nothing else is evaluated.
+          'script-src': ["'self'", "'wasm-unsafe-eval'"],
+          'worker-src': ["'self'", 'blob:'],
+          'connect-src': ["'self'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          // Fonts ship with the app: nothing is fetched from another host.
+          'font-src': ["'self'"],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'upgrade-insecure-requests': config.trustProxy ? [] : null,
+        },
+      },
+    }),
+  );
+
+  const auth = new AuthService(db);
+  const session = sessionMiddleware(db, config.sessionSecret);
+
+  const api = express.Router();
+  api.use(express.json({ limit: JSON_BODY_LIMIT }));
+  api.use(healthRoutes(db));
+  api.use(session.middleware);
+  api.use(loadUser(auth));
+  api.use(authRoutes(auth));
+  api.use(projectRoutes(db));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  if (existsSync(path.join(config.clientDir, 'index.html'))) {
+    app.use(
+      '/assets',
+      express.static(path.join(config.clientDir, 'assets'), { immutable: true, maxAge: '365d', fallthrough: false }),
+    );
+    app.use(express.static(config.clientDir, { index: false }));
+    // Client-side routes: every other GET gets the single page.
+    app.get('/{*splat}', (_req, res) => {
+      res.sendFile(path.join(config.clientDir, 'index.html'));
+    });
+  }
+
+  app.use(errorHandler);
+
+  return {
+    app,
+    close() {
+      const timer = (session.store as { nextDbCleanup?: NodeJS.Timeout }).nextDbCleanup;
+      if (timer) clearTimeout(timer);
+    },
+  };
+}

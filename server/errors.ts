@@ -1,0 +1,65 @@
+/**
+ * The server's errors. Each carries an HTTP status and a stable code; error-handler.ts turns any of them
+ * into the one wire shape `{ error: { code, message, fields? } }`.
+ */
+export type ErrorCode =
+  | 'VALIDATION_FAILED'
+  | 'MALFORMED_JSON'
+  | 'UNAUTHENTICATED'
+  | 'INVALID_CREDENTIALS'
+  | 'FORBIDDEN'
+  | 'CSRF_REJECTED'
+  | 'NOT_FOUND'
+  | 'CONFLICT'
+  | 'PAYLOAD_TOO_LARGE'
+  | 'RATE_LIMITED'
+  | 'SERVICE_UNAVAILABLE'
+  | 'INTERNAL';
+
+export type FieldErrors = Record<string, string>;
+
+export class AppError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: ErrorCode,
+    message: string,
+    readonly fields?: FieldErrors,
+  ) {
+    super(message);
+    this.name = 'AppError';
+  }
+
+  toBody() {
+    return { error: { code: this.code, message: this.message, ...(this.fields ? { fields: this.fields } : {}) } };
+  }
+}
+
+export class ValidationError extends AppError {
+  constructor(fields: FieldErrors, message = 'Some fields are not valid.') {
+    super(400, 'VALIDATION_FAILED', message, fields);
+  }
+}
+
+export class UnauthenticatedError extends AppError {
+  constructor(message = 'Sign in first.') {
+    super(401, 'UNAUTHENTICATED', message);
+  }
+}
+
+export class ForbiddenError extends AppError {
+  constructor(message = 'You may not do that here.', code: ErrorCode = 'FORBIDDEN') {
+    super(403, code, message);
+  }
+}
+
+export class NotFoundError extends AppError {
+  constructor(message = 'Not found.') {
+    super(404, 'NOT_FOUND', message);
+  }
+}
+
+export class ConflictError extends AppError {
+  constructor(message: string, fields?: FieldErrors) {
+    super(409, 'CONFLICT', message, fields);
+  }
+}

@@ -1,0 +1,25 @@
+/** Builds the client with Vite unless dist/ is already newer than every source that goes into it. */
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { PROJECT_ROOT } from '../config';
+
+const INPUTS = ['src', 'workers', 'public', 'server/schemas', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json'];
+
+function newestMtime(p: string): number {
+  if (!existsSync(p)) return 0;
+  const st = statSync(p);
+  if (!st.isDirectory()) return st.mtimeMs;
+  let newest = st.mtimeMs;
+  for (const entry of readdirSync(p)) newest = Math.max(newest, newestMtime(path.join(p, entry)));
+  return newest;
+}
+
+export async function buildClientIfStale(): Promise<'built' | 'fresh'> {
+  const marker = path.join(PROJECT_ROOT, 'dist', 'index.html');
+  const builtAt = existsSync(marker) ? statSync(marker).mtimeMs : 0;
+  const sourcesAt = Math.max(...INPUTS.map((p) => newestMtime(path.join(PROJECT_ROOT, p))));
+  if (builtAt > sourcesAt) return 'fresh';
+  const { build } = await import('vite');
+  await build({ configFile: path.join(PROJECT_ROOT, 'vite.config.ts'), logLevel: 'warn' });
+  return 'built';
+}

@@ -1,0 +1,22 @@
+/**
+ * `npm run dev`: the private MariaDB and the API on :3000 as in `npm start`, and the Vite dev server on
+ * http://127.0.0.1:5173 with /api proxied to the API (hot reload for the client).
+ */
+import { loadConfig } from '../config';
+import { serve } from '../index';
+import { printBanner } from './banner';
+import { prepareDatabase } from './database';
+import { onShutdown } from './shutdown';
+
+const config = loadConfig();
+const { mariadb } = await prepareDatabase('app', config.db);
+onShutdown(() => mariadb.stop());
+const app = await serve();
+onShutdown(() => app.stop());
+
+const { createServer } = await import('vite');
+process.env.API_PORT = String(config.port);
+const vite = await createServer({ configFile: new URL('../../vite.config.ts', import.meta.url).pathname });
+await vite.listen();
+onShutdown(() => vite.close());
+printBanner('http://127.0.0.1:5173', [`  (API on ${app.url})`]);

@@ -1,0 +1,24 @@
+/**
+ * `npm start`: private MariaDB → database, user, migrations, demo seed → client build → app + API on
+ * http://127.0.0.1:3000 (PORT overrides). Ctrl-C stops everything this started; the data stays in .data/.
+ */
+import { loadConfig } from '../config';
+import { serve } from '../index';
+import { printBanner } from './banner';
+import { buildClientIfStale } from './client-build';
+import { prepareDatabase } from './database';
+import { onShutdown } from './shutdown';
+
+const config = loadConfig();
+console.log(`fanlight: starting MariaDB on 127.0.0.1:${config.db.port}`);
+const { mariadb, applied, seed } = await prepareDatabase('app', config.db);
+onShutdown(() => mariadb.stop());
+if (applied.length) console.log(`fanlight: applied ${applied.length} migration(s)`);
+if (seed.usersCreated || seed.projectCreated) console.log('fanlight: seeded the demo accounts and project');
+
+console.log('fanlight: building the client');
+console.log(`fanlight: client ${await buildClientIfStale()}`);
+
+const app = await serve();
+onShutdown(() => app.stop());
+printBanner(app.url);

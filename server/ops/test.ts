@@ -1,0 +1,65 @@
+/**
+ * `npm test`: a separate private MariaDB (its own port and data folder, so it runs beside `npm start`),
+ * a fresh test database, migrations and seed, a type check, the client build, then every test (unit,
+ * API and browser) in one vitest run. Prints vitest's summary and, last, `tests: N passed, N failed`.
+ * Extra arguments go to vitest (`npm test -- tests/unit`).
+ */
+process.env.NODE_ENV = 'test';
+
+import { spawn } from 'node:child_process';
+import { existsSync, readFileSync, rmSync } from 'node:fs';
+import path from 'node:path';
+import { DATA_DIR, PROJECT_ROOT, loadConfig } from '../config';
+import { buildClientIfStale } from './client-build';
+import { prepareDatabase } from './database';
+import { onShutdown, shutdown } from './shutdown';
+
+function run(command: string, args: string[], env: NodeJS.ProcessEnv = process.env): Promise<number> {
+  return new Promise((resolve) => {
+    const child = spawn(command, args, { cwd: PROJECT_ROOT, env, stdio: 'inherit' });
+    child.on('exit', (code, signal) => resolve(code ?? (signal ? 1 : 0)));
+  });
+}
+
+interface VitestJsonReport {
+  numPassedTests: number;
+  numFailedTests: number;
+  numPendingTests?: number;
+  numTodoTests?: number;
+}
+
+const bin = (name: string) => path.join(PROJECT_ROOT, 'node_modules', '.bin', name);
+const config = loadConfig();
+
+console.log(`fanlight test: starting the test MariaDB on 127.0.0.1:${config.db.port}`);
+const { mariadb } = await prepareDatabase('test', config.db, { recreate: true });
+onShutdown(() => mariadb.stop());
+
+console.log('fanlight test: type check');
+const typecheck = await run(bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']);
+if (typecheck !== 0) console.error('fanlight test: the type check failed (see above)');
+
+console.log('fanlight test: building the client');
+console.log(`fanlight test: client ${await buildClientIfStale()}`);
+
+const report = path.join(DATA_DIR, 'vitest-report.json');
+rmSync(report, { force: true });
+const vitest = await run(
+  bin('vitest'),
+  ['run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...process.argv.slice(2)],
+  { ...process.env, NODE_ENV: 'test', FANLIGHT_TEST_DATA: DATA_DIR },
+);
+
+let passed = 0;
+let failed = 0;
+let skipped = 0;
+if (existsSync(report)) {
+  const r = JSON.parse(readFileSync(report, 'utf8')) as VitestJsonReport;
+  passed = r.numPassedTests;
+  failed = r.numFailedTests;
+  skipped = (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
+} else if (vitest !== 0) {
+  console.error('fanlight test: vitest wrote no report');
+}
+console.log(`tests: ${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
+await shutdown(vitest !== 0 || typecheck !== 0 || failed > 0 ? 1 : 0);

@@ -1,0 +1,42 @@
+import { Link, Outlet, useNavigate } from 'react-router-dom';
+import { useMe, useSignOut } from '../../features/auth/api/auth';
+import { paths } from '../../config/paths';
+import { Logo } from '../ui/logo';
+
+export function AppShell() {
+  const { data: me } = useMe();
+  const signOut = useSignOut();
+  const navigate = useNavigate();
+  return (
+    <div className="flex min-h-screen flex-col">
+      <header className="flex items-center gap-6 border-b border-ink-800 bg-ink-900 px-5 py-2.5">
+        <Link to={paths.projects} className="flex items-center gap-2 text-accent">
+          <Logo />
+          <span className="text-base font-semibold tracking-wide text-mist-100">Fanlight</span>
+        </Link>
+        <nav className="flex gap-4 text-sm text-mist-300">
+          <Link to={paths.projects} className="hover:text-mist-100">
+            Projects
+          </Link>
+        </nav>
+        <div className="ml-auto flex items-center gap-3 text-sm">
+          {me && (
+            <span className="text-mist-300" data-testid="signed-in-as">
+              {me.name} <span className="text-mist-500">· {me.siteRole}</span>
+            </span>
+          )}
+          <button
+            type="button"
+            className="rounded-md px-2 py-1 text-mist-300 hover:bg-ink-800 hover:text-mist-100"
+            onClick={() => signOut.mutate(undefined, { onSettled: () => navigate(paths.signIn) })}
+          >
+            Sign out
+          </button>
+        </div>
+      </header>
+      <main className="flex-1">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,43 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { PublicUser, SignInBody } from '../../../../server/schemas/auth';
+import { api, ApiError } from '../../../lib/api-client';
+
+export const authKeys = { me: ['auth', 'me'] as const };
+
+/** The signed-in user, or null when there is no session (a 401 is an answer here, not an error). */
+export const meQuery = queryOptions({
+  queryKey: authKeys.me,
+  queryFn: async (): Promise<PublicUser | null> => {
+    try {
+      return (await api.get<{ user: PublicUser }>('/auth/me')).user;
+    } catch (e) {
+      if (e instanceof ApiError && e.status === 401) return null;
+      throw e;
+    }
+  },
+  staleTime: 60_000,
+});
+
+export const useMe = () => useQuery(meQuery);
+
+export function useSignIn() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: SignInBody) => api.post<{ user: PublicUser }>('/auth/signin', body),
+    onSuccess: ({ user }) => {
+      qc.clear();
+      qc.setQueryData(authKeys.me, user);
+    },
+  });
+}
+
+export function useSignOut() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: () => api.post<void>('/auth/signout'),
+    onSettled: () => {
+      qc.clear();
+      qc.setQueryData(authKeys.me, null);
+    },
+  });
+}

@@ -1,0 +1,55 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { DEMO_PASSWORD } from '../../seeds/demo-scenario';
+import { startTestApp } from '../support/test-app';
+
+describe('sign-in', () => {
+  const t = startTestApp();
+  afterAll(() => t.close());
+
+  it('Can sign in as the demo engineer and read who I am', async () => {
+    const agent = t.agent();
+    const res = await agent.post('/api/auth/signin').send({ email: 'engineer@fanlight.test', password: DEMO_PASSWORD });
+    expect(res.status).toBe(200);
+    expect(res.body.user).toMatchObject({ email: 'engineer@fanlight.test', siteRole: 'staff' });
+    expect(res.body.user.passwordHash).toBeUndefined();
+    const cookie = String(res.headers['set-cookie']);
+    expect(cookie).toMatch(/fanlight\.sid=/);
+    expect(cookie).toMatch(/HttpOnly/i);
+    expect(cookie).toMatch(/SameSite=Lax/i);
+    const me = await agent.get('/api/auth/me');
+    expect(me.status).toBe(200);
+    expect(me.body.user.email).toBe('engineer@fanlight.test');
+  });
+
+  it('stores the session in MariaDB', async () => {
+    const agent = t.agent();
+    await agent.post('/api/auth/signin').send({ email: 'viewer@fanlight.test', password: DEMO_PASSWORD }).expect(200);
+    const rows = await t.db('sessions').select('sess');
+    const owners = rows.map((r) => (typeof r.sess === 'string' ? JSON.parse(r.sess) : r.sess).userId);
+    const viewer = await t.db('users').where({ email: 'viewer@fanlight.test' }).first('id');
+    expect(owners).toContain(viewer.id);
+  });
+
+  it('Cannot sign in with a wrong password; the message is the same as for an unknown e-mail', async () => {
+    const wrong = await t.agent().post('/api/auth/signin').send({ email: 'engineer@fanlight.test', password: 'nope' });
+    const unknown = await t.agent().post('/api/auth/signin').send({ email: 'nobody@fanlight.test', password: 'nope' });
+    expect(wrong.status).toBe(401);
+    expect(unknown.status).toBe(401);
+    expect(wrong.body).toEqual(unknown.body);
+  });
+
+  it('Errors naming each bad field when the body is not valid', async () => {
+    const res = await t.agent().post('/api/auth/signin').send({ email: 'not-an-email' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('VALIDATION_FAILED');
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(['email', 'password']);
+  });
+
+  it('answers 401 on /api/auth/me without a session, and after sign-out', async () => {
+    const agent = t.agent();
+    expect((await agent.get('/api/auth/me')).status).toBe(401);
+    await agent.post('/api/auth/signin').send({ email: 'lead@fanlight.test', password: DEMO_PASSWORD }).expect(200);
+    expect((await agent.post('/api/auth/signout')).status).toBe(204);
+    expect((await agent.get('/api/auth/me')).status).toBe(401);
+  });
+});

@@ -1,0 +1,37 @@
+/** Headless Debian Chromium through playwright-core (no browser download: the test command apt-installs it). */
+import { mkdirSync } from 'node:fs';
+import path from 'node:path';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { PROJECT_ROOT } from '../../server/config';
+import { DEMO_PASSWORD } from '../../seeds/demo-scenario';
+
+export const ARTEFACTS_DIR = path.join(PROJECT_ROOT, 'test-results');
+
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH || '/usr/bin/chromium',
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      // The machine has no network beyond loopback: keep Chromium from trying.
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+  });
+}
+
+export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD) {
+  await page.goto(`${baseUrl}/signin`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+export async function screenshot(page: Page, name: string) {
+  mkdirSync(ARTEFACTS_DIR, { recursive: true });
+  await page.screenshot({ path: path.join(ARTEFACTS_DIR, `${name}.png`), fullPage: true });
+}

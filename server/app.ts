@@ -70,7 +70,8 @@ export function createApp({ config, db }: AppDeps): FanlightApp {
     app.use(express.static(config.clientDir, { index: false }));
     // Client-side routes: every other GET gets the single page.
     app.get('/{*splat}', (_req, res) => {
-      res.sendFile(path.join(config.clientDir, 'index.html'));
+      // root + relative name: `send` refuses dot-folders only below root (the tests build into .data/).
+      res.sendFile('index.html', { root: config.clientDir });
     });
   }
 

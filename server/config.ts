@@ -93,6 +93,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     },
     sessionSecret: env.SESSION_SECRET || localSessionSecret(),
     trustProxy: trustProxy(env.TRUST_PROXY),
-    clientDir: path.join(PROJECT_ROOT, 'dist'),
+    // The tests build into their own folder so that `npm test` never rewrites what a running `npm start` serves.
+    clientDir: env.CLIENT_DIR || (mode === 'test' ? path.join(DATA_DIR, 'test-client') : path.join(PROJECT_ROOT, 'dist')),
   };
 }

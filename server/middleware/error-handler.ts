@@ -29,6 +29,10 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, _req, res, _next
     res.status(400).json(new AppError(400, 'MALFORMED_JSON', 'The request body is not valid JSON.').toBody());
     return;
   }
+  if (status === 404) {
+    res.status(404).json(new NotFoundError().toBody());
+    return;
+  }
   if (status && status >= 400 && status < 500) {
     res.status(status).json(new AppError(status, 'VALIDATION_FAILED', 'The request could not be read.').toBody());
     return;

@@ -14,12 +14,12 @@ function newestMtime(p: string): number {
   return newest;
 }
 
-export async function buildClientIfStale(): Promise<'built' | 'fresh'> {
-  const marker = path.join(PROJECT_ROOT, 'dist', 'index.html');
+export async function buildClientIfStale(outDir: string): Promise<'built' | 'fresh'> {
+  const marker = path.join(outDir, 'index.html');
   const builtAt = existsSync(marker) ? statSync(marker).mtimeMs : 0;
   const sourcesAt = Math.max(...INPUTS.map((p) => newestMtime(path.join(PROJECT_ROOT, p))));
   if (builtAt > sourcesAt) return 'fresh';
   const { build } = await import('vite');
-  await build({ configFile: path.join(PROJECT_ROOT, 'vite.config.ts'), logLevel: 'warn' });
+  await build({ configFile: path.join(PROJECT_ROOT, 'vite.config.ts'), logLevel: 'warn', build: { outDir } });
   return 'built';
 }

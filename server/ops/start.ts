@@ -17,7 +17,7 @@ if (applied.length) console.log(`fanlight: applied ${applied.length} migration(s
 if (seed.usersCreated || seed.projectCreated) console.log('fanlight: seeded the demo accounts and project');
 
 console.log('fanlight: building the client');
-console.log(`fanlight: client ${await buildClientIfStale()}`);
+console.log(`fanlight: client ${await buildClientIfStale(config.clientDir)}`);
 
 const app = await serve();
 onShutdown(() => app.stop());

@@ -40,7 +40,7 @@ const typecheck = await run(bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']);
 if (typecheck !== 0) console.error('fanlight test: the type check failed (see above)');
 
 console.log('fanlight test: building the client');
-console.log(`fanlight test: client ${await buildClientIfStale()}`);
+console.log(`fanlight test: client ${await buildClientIfStale(config.clientDir)}`);
 
 const report = path.join(DATA_DIR, 'vitest-report.json');
 rmSync(report, { force: true });

@@ -5,9 +5,9 @@
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { PROJECT_ROOT } from '../../../server/config';
+import { loadConfig } from '../../../server/config';
 
-const dist = path.join(PROJECT_ROOT, 'dist');
+const dist = loadConfig({ ...process.env, NODE_ENV: 'test' }).clientDir;
 
 function files(dir: string): string[] {
   return readdirSync(dir, { withFileTypes: true }).flatMap((e) =>

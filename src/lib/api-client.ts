@@ -22,9 +22,35 @@ export class ApiError extends Error {
 
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 
-async function request<T>(method: Method, path: string, body?: unknown): Promise<T> {
+// The cross-site request token, bound to the session (GET /api/auth/csrf). A new session (sign-in,
+// sign-out) needs a new one, so those calls forget it.
+let csrfToken: Promise<string> | null = null;
+
+export function forgetCsrfToken() {
+  csrfToken = null;
+}
+
+function currentCsrfToken(): Promise<string> {
+  csrfToken ??= fetch('/api/auth/csrf', { credentials: 'same-origin', headers: { Accept: 'application/json' } })
+    .then((r) => (r.ok ? r.json() : Promise.reject(new Error('no token'))))
+    .then((b: { token: string }) => b.token)
+    .catch((e) => {
+      csrfToken = null;
+      throw e;
+    });
+  return csrfToken;
+}
+
+async function request<T>(method: Method, path: string, body?: unknown, retried = false): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (body !== undefined) headers['Content-Type'] = 'application/json';
+  if (method !== 'GET') {
+    try {
+      headers['X-CSRF-Token'] = await currentCsrfToken();
+    } catch {
+      throw new ApiError(0, 'NETWORK', 'The server cannot be reached. Check that Fanlight is running.');
+    }
+  }
   let response: Response;
   try {
     response = await fetch(`/api${path}`, {
@@ -46,6 +72,10 @@ async function request<T>(method: Method, path: string, body?: unknown): Promise
   }
   if (!response.ok) {
     const err = (data as { error?: ApiErrorBody } | undefined)?.error;
+    if (err?.code === 'CSRF_REJECTED' && !retried) {
+      forgetCsrfToken(); // the session changed under us (signed in elsewhere, expired): fetch a new token once
+      return request<T>(method, path, body, true);
+    }
     throw new ApiError(
       response.status,
       err?.code ?? 'HTTP_' + response.status,

@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { PublicUser, SignInBody } from '../../../../server/schemas/auth';
-import { api, ApiError } from '../../../lib/api-client';
+import { api, ApiError, forgetCsrfToken } from '../../../lib/api-client';
 
 export const authKeys = { me: ['auth', 'me'] as const };
 
@@ -25,6 +25,7 @@ export function useSignIn() {
   return useMutation({
     mutationFn: (body: SignInBody) => api.post<{ user: PublicUser }>('/auth/signin', body),
     onSuccess: ({ user }) => {
+      forgetCsrfToken();
       qc.clear();
       qc.setQueryData(authKeys.me, user);
     },
@@ -36,6 +37,7 @@ export function useSignOut() {
   return useMutation({
     mutationFn: () => api.post<void>('/auth/signout'),
     onSettled: () => {
+      forgetCsrfToken();
       qc.clear();
       qc.setQueryData(authKeys.me, null);
     },

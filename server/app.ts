@@ -7,16 +7,26 @@ import type { AppConfig } from './config';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { loadUser } from './middleware/require-session';
 import { sessionMiddleware } from './middleware/session';
+import { csrfProtection } from './middleware/csrf';
+import { createMailer, type Mailer } from './mail/mailer';
+import { adminRoutes } from './routes/admin';
 import { authRoutes } from './routes/auth';
 import { healthRoutes } from './routes/health';
+import { invitationRoutes } from './routes/invitations';
+import { outboxRoutes } from './routes/outbox';
 import { projectRoutes } from './routes/projects';
+import { AdminService } from './services/admin-service';
 import { AuthService } from './services/auth-service';
+import { InvitationService } from './services/invitation-service';
+import { PasswordResetService } from './services/password-reset-service';
+import { ProjectService } from './services/project-service';
 
 export const JSON_BODY_LIMIT = '200kb';
 
 export interface AppDeps {
   config: AppConfig;
   db: Knex;
+  mailer?: Mailer;
 }
 
 export interface FanlightApp {
@@ -25,7 +35,7 @@ export interface FanlightApp {
   close(): void;
 }
 
-export function createApp({ config, db }: AppDeps): FanlightApp {
+export function createApp({ config, db, mailer = createMailer(config.smtp) }: AppDeps): FanlightApp {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy);
@@ -51,14 +61,19 @@ export function createApp({ config, db }: AppDeps): FanlightApp {
 
   const auth = new AuthService(db);
   const session = sessionMiddleware(db, config.sessionSecret);
+  const invitations = new InvitationService(db, mailer, config.publicOrigin);
 
   const api = express.Router();
   api.use(express.json({ limit: JSON_BODY_LIMIT }));
   api.use(healthRoutes(db));
+  if (config.env !== 'production') api.use(outboxRoutes(config.smtp.outboxDir));
   api.use(session.middleware);
   api.use(loadUser(auth));
-  api.use(authRoutes(auth));
-  api.use(projectRoutes(db));
+  api.use(csrfProtection([config.publicOrigin, ...config.extraOrigins]));
+  api.use(authRoutes(auth, new PasswordResetService(db, mailer, config.publicOrigin)));
+  api.use(projectRoutes(new ProjectService(db), invitations));
+  api.use(invitationRoutes(invitations));
+  api.use(adminRoutes(new AdminService(db)));
   api.use(apiNotFound);
   app.use('/api', api);
 
@@ -80,6 +95,7 @@ export function createApp({ config, db }: AppDeps): FanlightApp {
   return {
     app,
     close() {
+      mailer.close();
       const timer = (session.store as { nextDbCleanup?: NodeJS.Timeout }).nextDbCleanup;
       if (timer) clearTimeout(timer);
     },

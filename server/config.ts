@@ -25,6 +25,9 @@ export interface SmtpConfig {
   user?: string;
   password?: string;
   from: string;
+  /** No SMTP_HOST set: mail goes to the local SMTP fake that the launchers start, kept in outboxDir. */
+  useFake: boolean;
+  outboxDir: string;
 }
 
 export interface AppConfig {
@@ -33,6 +36,8 @@ export interface AppConfig {
   port: number;
   /** The origin the browser uses, for links in mail and for the cross-site request check. */
   publicOrigin: string;
+  /** Further origins whose pages may call the API (e.g. the Vite dev server). */
+  extraOrigins: string[];
   db: DbConfig;
   smtp: SmtpConfig;
   sessionSecret: string;
@@ -76,6 +81,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     host,
     port,
     publicOrigin: env.PUBLIC_ORIGIN || `http://${host}:${port}`,
+    extraOrigins: (env.ALLOWED_ORIGINS ?? '').split(',').map((o) => o.trim()).filter(Boolean),
     db: {
       host: env.DB_HOST || '127.0.0.1',
       port: int(env.DB_PORT, mode === 'test' ? 33307 : 33306, 'DB_PORT'),
@@ -90,6 +96,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       user: env.SMTP_USER || undefined,
       password: env.SMTP_PASSWORD || undefined,
       from: env.MAIL_FROM || 'Fanlight <no-reply@fanlight.test>',
+      useFake: !env.SMTP_HOST,
+      outboxDir: env.OUTBOX_DIR || path.join(DATA_DIR, mode === 'test' ? 'outbox-test' : 'outbox-app'),
     },
     sessionSecret: env.SESSION_SECRET || localSessionSecret(),
     trustProxy: trustProxy(env.TRUST_PROXY),

@@ -3,14 +3,17 @@
  * http://127.0.0.1:5173 with /api proxied to the API (hot reload for the client).
  */
 import { loadConfig } from '../config';
+import { startMailFakeIfWanted } from './mail-fake';
 import { serve } from '../index';
 import { printBanner } from './banner';
 import { prepareDatabase } from './database';
 import { onShutdown } from './shutdown';
 
+process.env.PUBLIC_ORIGIN ??= 'http://127.0.0.1:5173'; // links in mail open the dev server
 const config = loadConfig();
 const { mariadb } = await prepareDatabase('app', config.db);
 onShutdown(() => mariadb.stop());
+const mailLine = await startMailFakeIfWanted(config);
 const app = await serve();
 onShutdown(() => app.stop());
 
@@ -19,4 +22,4 @@ process.env.API_PORT = String(config.port);
 const vite = await createServer({ configFile: new URL('../../vite.config.ts', import.meta.url).pathname });
 await vite.listen();
 onShutdown(() => vite.close());
-printBanner('http://127.0.0.1:5173', [`  (API on ${app.url})`]);
+printBanner('http://127.0.0.1:5173', [`  (API on ${app.url})`, ...(mailLine ? [mailLine] : [])]);

@@ -1,5 +1,5 @@
 /**
- * `npm start`: private MariaDB → database, user, migrations, demo seed → client build → app + API on
+ * `npm start`: private MariaDB → database, user, migrations, demo seed → client build → mail fake → app + API on
  * http://127.0.0.1:3000 (PORT overrides). Ctrl-C stops everything this started; the data stays in .data/.
  */
 import { loadConfig } from '../config';
@@ -7,6 +7,7 @@ import { serve } from '../index';
 import { printBanner } from './banner';
 import { buildClientIfStale } from './client-build';
 import { prepareDatabase } from './database';
+import { startMailFakeIfWanted } from './mail-fake';
 import { onShutdown } from './shutdown';
 
 const config = loadConfig();
@@ -19,6 +20,7 @@ if (seed.usersCreated || seed.projectCreated) console.log('fanlight: seeded the 
 console.log('fanlight: building the client');
 console.log(`fanlight: client ${await buildClientIfStale(config.clientDir)}`);
 
+const mailLine = await startMailFakeIfWanted(config);
 const app = await serve();
 onShutdown(() => app.stop());
-printBanner(app.url);
+printBanner(app.url, mailLine ? ['', mailLine] : []);

@@ -12,6 +12,7 @@ import path from 'node:path';
 import { DATA_DIR, PROJECT_ROOT, loadConfig } from '../config';
 import { buildClientIfStale } from './client-build';
 import { prepareDatabase } from './database';
+import { startMailFakeIfWanted } from './mail-fake';
 import { onShutdown, shutdown } from './shutdown';
 
 function run(command: string, args: string[], env: NodeJS.ProcessEnv = process.env): Promise<number> {
@@ -34,6 +35,8 @@ const config = loadConfig();
 console.log(`fanlight test: starting the test MariaDB on 127.0.0.1:${config.db.port}`);
 const { mariadb } = await prepareDatabase('test', config.db, { recreate: true });
 onShutdown(() => mariadb.stop());
+rmSync(config.smtp.outboxDir, { recursive: true, force: true }); // each run reads only its own mail
+await startMailFakeIfWanted(config);
 
 console.log('fanlight test: type check');
 const typecheck = await run(bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']);

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import type { ProjectRole, ProjectSummary } from '../schemas/projects';
+import type { ProjectDetail, ProjectMember, ProjectRole, ProjectSummary } from '../schemas/projects';
 
 interface SummaryRow {
   id: number;
@@ -10,19 +10,33 @@ interface SummaryRow {
   recording_count: number | string;
   view_count: number | string;
   archived_at: Date | null;
+  created_at: Date;
   updated_at: Date;
   last_activity_at: Date | null;
 }
 
 const toIso = (d: Date) => new Date(d).toISOString();
 
+const toDetail = (r: SummaryRow): ProjectDetail => ({
+  id: r.id,
+  name: r.name,
+  description: r.description,
+  role: r.role,
+  memberCount: Number(r.member_count),
+  recordingCount: Number(r.recording_count),
+  viewCount: Number(r.view_count),
+  archived: r.archived_at !== null,
+  lastActivityAt: toIso(r.last_activity_at ?? r.updated_at),
+  createdAt: toIso(r.created_at),
+});
+
 export class ProjectRepository {
   constructor(private readonly db: Knex) {}
 
-  /** The projects a user belongs to, with their role and counts, most recently active first. */
-  async listForUser(userId: number): Promise<ProjectSummary[]> {
+  /** Projects with the given user's role and the counts the Projects table shows. */
+  private summaries(userId: number) {
     const db = this.db;
-    const rows: SummaryRow[] = await db('projects as p')
+    return db('projects as p')
       .join('project_members as me', function () {
         this.on('me.project_id', '=', 'p.id').andOn('me.user_id', '=', db.raw('?', [userId]));
       })
@@ -31,6 +45,7 @@ export class ProjectRepository {
         'p.name',
         'p.description',
         'p.archived_at',
+        'p.created_at',
         'p.updated_at',
         'me.role',
         db('project_members as m').count('*').whereRaw('m.project_id = p.id').as('member_count'),
@@ -38,18 +53,86 @@ export class ProjectRepository {
         db('views as v').count('*').whereRaw('v.project_id = p.id').as('view_count'),
         db('activity as a').max('a.created_at').whereRaw('a.project_id = p.id').as('last_activity_at'),
       );
+  }
+
+  /** The projects a user belongs to, most recently active first. */
+  async listForUser(userId: number): Promise<ProjectSummary[]> {
+    const rows: SummaryRow[] = await this.summaries(userId);
     return rows
-      .map((r) => ({
-        id: r.id,
-        name: r.name,
-        description: r.description,
-        role: r.role,
-        memberCount: Number(r.member_count),
-        recordingCount: Number(r.recording_count),
-        viewCount: Number(r.view_count),
-        archived: r.archived_at !== null,
-        lastActivityAt: toIso(r.last_activity_at ?? r.updated_at),
-      }))
+      .map((r) => {
+        const { createdAt: _createdAt, ...summary } = toDetail(r);
+        return summary;
+      })
       .sort((a, b) => b.lastActivityAt.localeCompare(a.lastActivityAt));
+  }
+
+  async findForUser(projectId: number, userId: number): Promise<ProjectDetail | null> {
+    const row: SummaryRow | undefined = await this.summaries(userId).where('p.id', projectId).first();
+    return row ? toDetail(row) : null;
+  }
+
+  async exists(projectId: number): Promise<boolean> {
+    return Boolean(await this.db('projects').where({ id: projectId }).first('id'));
+  }
+
+  async isArchived(projectId: number): Promise<boolean> {
+    const row = await this.db('projects').where({ id: projectId }).first('archived_at');
+    return Boolean(row?.archived_at);
+  }
+
+  async create(p: { name: string; description: string; createdBy: number }, db: Knex = this.db): Promise<number> {
+    const [id] = await db('projects').insert({ name: p.name, description: p.description, created_by: p.createdBy });
+    return id;
+  }
+
+  async update(projectId: number, changes: { name?: string; description?: string }): Promise<void> {
+    await this.db('projects')
+      .where({ id: projectId })
+      .update({ ...changes, updated_at: this.db.fn.now() });
+  }
+
+  async setArchived(projectId: number, archived: boolean): Promise<void> {
+    await this.db('projects')
+      .where({ id: projectId })
+      .update({ archived_at: archived ? this.db.fn.now() : null, updated_at: this.db.fn.now() });
+  }
+}
+
+export class MemberRepository {
+  constructor(private readonly db: Knex) {}
+
+  async roleOf(projectId: number, userId: number, db: Knex = this.db): Promise<ProjectRole | null> {
+    const row = await db('project_members').where({ project_id: projectId, user_id: userId }).first('role');
+    return row?.role ?? null;
+  }
+
+  async list(projectId: number): Promise<ProjectMember[]> {
+    const rows = await this.db('project_members as m')
+      .join('users as u', 'u.id', 'm.user_id')
+      .where('m.project_id', projectId)
+      .orderByRaw("FIELD(m.role, 'lead', 'engineer', 'viewer'), u.name")
+      .select('u.id', 'u.email', 'u.name', 'm.role', 'm.created_at');
+    return rows.map((r) => ({
+      userId: r.id,
+      email: r.email,
+      name: r.name,
+      role: r.role,
+      joinedAt: new Date(r.created_at).toISOString(),
+    }));
+  }
+
+  /** Adds a member, or changes the role of one already there. */
+  async upsert(projectId: number, userId: number, role: ProjectRole, db: Knex = this.db): Promise<void> {
+    await db('project_members').insert({ project_id: projectId, user_id: userId, role }).onConflict().merge(['role']);
+  }
+
+  async remove(projectId: number, userId: number, db: Knex = this.db): Promise<void> {
+    await db('project_members').where({ project_id: projectId, user_id: userId }).delete();
+  }
+
+  /** Counts leads with a row lock, so two concurrent demotions cannot both pass the last-lead check. */
+  async countLeadsForUpdate(projectId: number, db: Knex): Promise<number> {
+    const rows = await db('project_members').where({ project_id: projectId, role: 'lead' }).forUpdate().select('user_id');
+    return rows.length;
   }
 }

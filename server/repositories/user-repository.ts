@@ -57,3 +57,42 @@ export class UserRepository {
     return id;
   }
 }
+
+export interface UserChanges {
+  name?: string;
+  siteRole?: SiteRole;
+  disabled?: boolean;
+  passwordHash?: string;
+}
+
+export interface UserWithCounts extends UserRecord {
+  projectCount: number;
+}
+
+export class UserAdminRepository {
+  constructor(private readonly db: Knex) {}
+
+  async list(): Promise<UserWithCounts[]> {
+    const rows = await this.db('users as u')
+      .select('u.*', this.db('project_members as m').count('*').whereRaw('m.user_id = u.id').as('project_count'))
+      .orderBy('u.name');
+    return rows.map((r: UserRow & { project_count: number | string }) => ({
+      ...fromRow(r),
+      projectCount: Number(r.project_count),
+    }));
+  }
+
+  async update(id: number, changes: UserChanges, db: Knex = this.db): Promise<void> {
+    const row: Record<string, unknown> = { updated_at: db.fn.now() };
+    if (changes.name !== undefined) row.name = changes.name;
+    if (changes.siteRole !== undefined) row.site_role = changes.siteRole;
+    if (changes.passwordHash !== undefined) row.password_hash = changes.passwordHash;
+    if (changes.disabled !== undefined) row.disabled_at = changes.disabled ? db.fn.now() : null;
+    await db('users').where({ id }).update(row);
+  }
+
+  async countActiveAdmins(db: Knex = this.db): Promise<number> {
+    const [{ n }] = await db('users').where({ site_role: 'admin' }).whereNull('disabled_at').count({ n: '*' });
+    return Number(n);
+  }
+}

@@ -2,12 +2,23 @@ import { createBrowserRouter, Navigate, RouterProvider } from 'react-router-dom'
 import { AppShell } from '../components/layouts/app-shell';
 import { RequireSignIn } from '../components/layouts/require-sign-in';
 import { paths } from '../config/paths';
+import { AdminUsersPage } from './routes/admin-users';
+import { ForgotPasswordPage } from './routes/forgot-password';
+import { InvitationPage } from './routes/invitation';
 import { NotFoundPage } from './routes/not-found';
+import { OutboxPage } from './routes/outbox';
+import { ProjectPage } from './routes/project';
 import { ProjectsPage } from './routes/projects';
+import { ResetPasswordPage } from './routes/reset-password';
 import { SignInPage } from './routes/sign-in';
 
 const router = createBrowserRouter([
   { path: paths.signIn, element: <SignInPage /> },
+  { path: paths.forgotPassword, element: <ForgotPasswordPage /> },
+  { path: paths.resetPassword, element: <ResetPasswordPage /> },
+  // Outside the guard: an invitee may have no account yet.
+  { path: paths.invitation(':token'), element: <InvitationPage /> },
+  { path: paths.outbox, element: <OutboxPage /> },
   {
     element: <RequireSignIn />,
     children: [
@@ -16,6 +27,8 @@ const router = createBrowserRouter([
         children: [
           { index: true, element: <Navigate to={paths.projects} replace /> },
           { path: paths.projects, element: <ProjectsPage /> },
+          { path: paths.project(':id'), element: <ProjectPage /> },
+          { path: paths.adminUsers, element: <AdminUsersPage /> },
           { path: '*', element: <NotFoundPage /> },
         ],
       },

@@ -1,5 +1,13 @@
 export const paths = {
   signIn: '/signin',
+  forgotPassword: '/forgot-password',
+  resetPassword: '/reset-password',
+  invitation: (token: string) => `/invitations/${token}`,
   projects: '/projects',
   project: (id: number | string) => `/projects/${id}`,
+  adminUsers: '/admin/users',
+  outbox: '/outbox',
 } as const;
+
+/** Sign in, then come back to `next` (a same-site path). */
+export const signInThen = (next: string) => `${paths.signIn}?next=${encodeURIComponent(next)}`;

@@ -1,5 +1,6 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../seeds/demo-scenario';
+import { sessionFor } from '../support/actors';
 import { startTestApp } from '../support/test-app';
 
 describe('sign-in', () => {
@@ -46,10 +47,21 @@ describe('sign-in', () => {
   });
 
   it('answers 401 on /api/auth/me without a session, and after sign-out', async () => {
+    expect((await t.agent().get('/api/auth/me')).status).toBe(401);
+    const s = await sessionFor(t.app, 'lead@fanlight.test', DEMO_PASSWORD);
+    expect((await s.request('GET', '/api/auth/me')).status).toBe(200);
+    expect((await s.request('POST', '/api/auth/signout')).status).toBe(204);
+    expect((await s.request('GET', '/api/auth/me')).status).toBe(401);
+  });
+
+  it('gives the session a new id at sign-in (no session fixation)', async () => {
     const agent = t.agent();
-    expect((await agent.get('/api/auth/me')).status).toBe(401);
+    const before = (await agent.get('/api/auth/csrf')).headers['set-cookie'];
     await agent.post('/api/auth/signin').send({ email: 'lead@fanlight.test', password: DEMO_PASSWORD }).expect(200);
-    expect((await agent.post('/api/auth/signout')).status).toBe(204);
-    expect((await agent.get('/api/auth/me')).status).toBe(401);
+    const after = (await agent.get('/api/auth/me')).request.getHeader?.('cookie');
+    const sid = (c: unknown) => /fanlight\.sid=([^;]+)/.exec(String(c))?.[1];
+    expect(sid(before)).toBeTruthy();
+    expect(sid(after)).toBeTruthy();
+    expect(sid(after)).not.toBe(sid(before));
   });
 });

@@ -1,11 +1,16 @@
 import { Link } from 'react-router-dom';
 import { paths } from '../../config/paths';
+import { useMe } from '../../features/auth/api/auth';
 import { useProjects } from '../../features/projects/api/projects';
+import { CreateProjectForm } from '../../features/projects/components/create-project-form';
 import { Notice } from '../../components/ui/notice';
 import { formatDateTime } from '../../lib/format';
 
 export function ProjectsPage() {
   const { data: projects, isPending, error } = useProjects();
+  const { data: me } = useMe();
+  // The server allows staff and admins to create projects; guests are invited into them.
+  const mayCreate = me?.siteRole === 'staff' || me?.siteRole === 'admin';
   return (
     <div className="mx-auto max-w-5xl px-6 py-8">
       <h1 className="mb-6 text-xl font-semibold">Projects</h1>
@@ -44,6 +49,11 @@ export function ProjectsPage() {
             ))}
           </tbody>
         </table>
+      )}
+      {mayCreate && (
+        <div className="mt-10 max-w-xl">
+          <CreateProjectForm />
+        </div>
       )}
     </div>
   );

@@ -1,7 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import type { z } from 'zod';
 import { signInBody } from '../../../server/schemas/auth';
 import { Button } from '../../components/ui/button';
@@ -75,7 +75,15 @@ export function SignInPage() {
           <Button type="submit" disabled={isSubmitting}>
             {isSubmitting ? 'Signing in…' : 'Sign in'}
           </Button>
+          <Link to={paths.forgotPassword} className="text-sm text-accent hover:underline">
+            Forgot password?
+          </Link>
         </form>
+        <footer className="mt-6 text-center text-xs text-mist-500">
+          <Link to={paths.outbox} className="hover:text-mist-300 hover:underline">
+            Outbox (development)
+          </Link>
+        </footer>
       </div>
     </div>
   );

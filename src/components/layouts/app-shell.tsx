@@ -18,6 +18,11 @@ export function AppShell() {
           <Link to={paths.projects} className="hover:text-mist-100">
             Projects
           </Link>
+          {me?.siteRole === 'admin' && (
+            <Link to={paths.adminUsers} className="hover:text-mist-100">
+              Users
+            </Link>
+          )}
         </nav>
         <div className="ml-auto flex items-center gap-3 text-sm">
           {me && (

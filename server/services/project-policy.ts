@@ -1,0 +1,43 @@
+import type { Knex } from 'knex';
+import { ConflictError, ForbiddenError, NotFoundError } from '../errors';
+import { MemberRepository, ProjectRepository } from '../repositories/project-repository';
+import type { ProjectRole } from '../schemas/projects';
+
+const RANK: Record<ProjectRole, number> = { viewer: 1, engineer: 2, lead: 3 };
+const WHO: Record<ProjectRole, string> = {
+  viewer: 'members',
+  engineer: 'engineers and leads',
+  lead: 'project leads',
+};
+
+export const atLeast = (role: ProjectRole, min: ProjectRole) => RANK[role] >= RANK[min];
+
+/**
+ * Who may do what in a project. A non-member gets 404 (the project is not theirs to know about); a
+ * member whose role is too low gets 403.
+ */
+export class ProjectPolicy {
+  private readonly members: MemberRepository;
+  private readonly projects: ProjectRepository;
+
+  constructor(db: Knex) {
+    this.members = new MemberRepository(db);
+    this.projects = new ProjectRepository(db);
+  }
+
+  async require(projectId: number, userId: number, min: ProjectRole): Promise<ProjectRole> {
+    const role = await this.members.roleOf(projectId, userId);
+    if (!role) throw new NotFoundError('Project not found.');
+    if (!atLeast(role, min)) throw new ForbiddenError(`Only ${WHO[min]} may do that in this project.`);
+    return role;
+  }
+
+  /** As require(), and the project must not be archived (changes to an archived project are refused). */
+  async requireWritable(projectId: number, userId: number, min: ProjectRole): Promise<ProjectRole> {
+    const role = await this.require(projectId, userId, min);
+    if (await this.projects.isArchived(projectId)) {
+      throw new ConflictError('This project is archived. A lead can restore it first.');
+    }
+    return role;
+  }
+}

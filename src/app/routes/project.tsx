@@ -1,0 +1,60 @@
+import { Link, useParams } from 'react-router-dom';
+import { Notice } from '../../components/ui/notice';
+import { Section } from '../../components/ui/section';
+import { linkClass } from '../../components/ui/styles';
+import { paths } from '../../config/paths';
+import { useProject } from '../../features/projects/api/projects';
+import { ActivityList } from '../../features/projects/components/activity-list';
+import { MembersSection } from '../../features/projects/components/members-section';
+import { ProjectHeader } from '../../features/projects/components/project-header';
+import { ApiError } from '../../lib/api-client';
+
+export function ProjectPage() {
+  const raw = useParams().id ?? '';
+  const id = /^[1-9]\d*$/.test(raw) ? Number(raw) : null;
+  if (id === null) return <ProjectNotFound />;
+  return <Project id={id} />;
+}
+
+function Project({ id }: { id: number }) {
+  const { data: project, isPending, error } = useProject(id);
+  if (isPending) return <p className="px-6 py-8 text-sm text-mist-500">Loading the project…</p>;
+  // The server answers 404 for projects one is not a member of, as for those that do not exist.
+  if (error instanceof ApiError && error.status === 404) return <ProjectNotFound />;
+  if (error) {
+    return (
+      <div className="mx-auto max-w-6xl px-6 py-8">
+        <Notice tone="error">{error.message}</Notice>
+      </div>
+    );
+  }
+  return (
+    <div className="mx-auto max-w-6xl px-6 py-8">
+      <ProjectHeader project={project} />
+      <div className="grid gap-6 lg:grid-cols-2">
+        <Section title="Recordings">
+          <p className="text-sm text-mist-500">Recordings arrive with the Bench, which is not built yet.</p>
+        </Section>
+        <Section title="Views">
+          <p className="text-sm text-mist-500">Shared views arrive with the Bench, too.</p>
+        </Section>
+      </div>
+      <div className="mt-6 grid items-start gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <MembersSection projectId={id} isLead={project.role === 'lead'} />
+        <ActivityList projectId={id} />
+      </div>
+    </div>
+  );
+}
+
+function ProjectNotFound() {
+  return (
+    <div className="mx-auto max-w-xl px-6 py-16 text-center">
+      <h1 className="mb-2 text-xl font-semibold">Project not found</h1>
+      <p className="mb-6 text-sm text-mist-500">It does not exist, or you are not a member of it.</p>
+      <Link to={paths.projects} className={linkClass}>
+        Back to your projects
+      </Link>
+    </div>
+  );
+}

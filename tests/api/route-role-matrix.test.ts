@@ -1,0 +1,244 @@
+/**
+ * Every API route, for every kind of caller, against the status it must answer. The table is the
+ * specification: a route registered in the app without a row here fails the first test.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { hashToken, newToken } from '../../server/services/tokens';
+import { makeProject, makeUser, sessionFor, uniqueEmail, type Session } from '../support/actors';
+import { registeredRoutes } from '../support/routes';
+import { startTestApp } from '../support/test-app';
+
+const ACTORS = ['anonymous', 'guest', 'nonMember', 'viewer', 'engineer', 'lead', 'admin'] as const;
+type Actor = (typeof ACTORS)[number];
+type Expect = Record<Actor, number>;
+
+/** Shorthands for the common shapes of expectation. */
+const all = (s: number): Expect => ({ anonymous: s, guest: s, nonMember: s, viewer: s, engineer: s, lead: s, admin: s });
+const signedIn = (s: number): Expect => ({ ...all(s), anonymous: 401 });
+// Project routes: outsiders (guest, staff non-member, admin who is no member) may not know the project exists.
+const member = (min: 'viewer' | 'engineer' | 'lead', ok: number): Expect => ({
+  anonymous: 401,
+  guest: 404,
+  nonMember: 404,
+  admin: 404,
+  viewer: min === 'viewer' ? ok : 403,
+  engineer: min === 'lead' ? 403 : ok,
+  lead: ok,
+});
+const adminOnly = (ok: number): Expect => ({ ...signedIn(403), admin: ok });
+
+interface Fixture {
+  projectId: number;
+  targetMemberId: number;
+  adminTargetId: number;
+}
+
+interface Row {
+  method: 'GET' | 'POST' | 'PATCH' | 'DELETE';
+  route: string;
+  expect: Expect;
+  /** Builds the concrete path and body for one call (fresh targets where a call would use them up). */
+  call(f: Fixture, actor: Actor): Promise<{ path: string; body?: unknown }> | { path: string; body?: unknown };
+  /** Needs a session of its own (it changes or ends the session). */
+  ownSession?: boolean;
+}
+
+const t = startTestApp();
+
+async function openInvitation(projectId: number, email = uniqueEmail('invitee')) {
+  const token = newToken();
+  const [id] = await t.db('invitations').insert({
+    project_id: projectId,
+    email,
+    role: 'viewer',
+    token_hash: hashToken(token),
+    expires_at: new Date(Date.now() + 3600_000),
+  });
+  return { id, token };
+}
+
+const ROWS: Row[] = [
+  { method: 'GET', route: '/api/health', expect: all(200), call: () => ({ path: '/api/health' }) },
+  { method: 'GET', route: '/api/outbox', expect: all(200), call: () => ({ path: '/api/outbox' }) },
+  { method: 'GET', route: '/api/auth/csrf', expect: all(200), call: () => ({ path: '/api/auth/csrf' }) },
+  {
+    method: 'POST',
+    route: '/api/auth/signin',
+    expect: all(401),
+    ownSession: true,
+    // a fresh unknown e-mail each time, so the per-e-mail brake does not join in
+    call: () => ({ path: '/api/auth/signin', body: { email: uniqueEmail('unknown'), password: 'wrong-password' } }),
+  },
+  { method: 'POST', route: '/api/auth/signout', expect: all(204), ownSession: true, call: () => ({ path: '/api/auth/signout' }) },
+  { method: 'GET', route: '/api/auth/me', expect: signedIn(200), call: () => ({ path: '/api/auth/me' }) },
+  {
+    method: 'POST',
+    route: '/api/auth/password-reset/request',
+    expect: all(202),
+    call: () => ({ path: '/api/auth/password-reset/request', body: { email: uniqueEmail('nobody') } }),
+  },
+  {
+    method: 'POST',
+    route: '/api/auth/password-reset/confirm',
+    expect: all(400),
+    call: () => ({ path: '/api/auth/password-reset/confirm', body: { token: newToken(), password: 'long-enough-password' } }),
+  },
+  { method: 'GET', route: '/api/projects', expect: signedIn(200), call: () => ({ path: '/api/projects' }) },
+  {
+    method: 'POST',
+    route: '/api/projects',
+    // staff and admins create; the viewer and the guest are site guests
+    expect: { anonymous: 401, guest: 403, nonMember: 201, viewer: 403, engineer: 201, lead: 201, admin: 201 },
+    call: () => ({ path: '/api/projects', body: { name: 'Matrix-made project', description: '' } }),
+  },
+  { method: 'GET', route: '/api/projects/:id', expect: member('viewer', 200), call: (f) => ({ path: `/api/projects/${f.projectId}` }) },
+  {
+    method: 'PATCH',
+    route: '/api/projects/:id',
+    expect: member('lead', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}`, body: { description: 'Changed by the matrix' } }),
+  },
+  {
+    method: 'POST',
+    route: '/api/projects/:id/archive',
+    expect: member('lead', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/archive` }),
+  },
+  {
+    method: 'POST',
+    route: '/api/projects/:id/restore',
+    expect: member('lead', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/restore` }),
+  },
+  {
+    method: 'GET',
+    route: '/api/projects/:id/members',
+    expect: member('viewer', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/members` }),
+  },
+  {
+    method: 'PATCH',
+    route: '/api/projects/:id/members/:userId',
+    expect: member('lead', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/members/${f.targetMemberId}`, body: { role: 'engineer' } }),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/projects/:id/members/:userId',
+    expect: member('lead', 204),
+    call: async (f) => {
+      const temp = await makeUser(t.db, 'temp-member', 'guest');
+      await t.db('project_members').insert({ project_id: f.projectId, user_id: temp.id, role: 'viewer' });
+      return { path: `/api/projects/${f.projectId}/members/${temp.id}` };
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/projects/:id/invitations',
+    expect: member('lead', 201),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/invitations`, body: { email: uniqueEmail('invited'), role: 'viewer' } }),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/projects/:id/invitations/:invitationId',
+    expect: member('lead', 204),
+    call: async (f) => ({ path: `/api/projects/${f.projectId}/invitations/${(await openInvitation(f.projectId)).id}` }),
+  },
+  {
+    method: 'GET',
+    route: '/api/projects/:id/activity',
+    expect: member('viewer', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/activity` }),
+  },
+  {
+    method: 'GET',
+    route: '/api/invitations/:token',
+    // the token is the credential: whoever holds the link may read what it invites to
+    expect: all(200),
+    call: async (f) => ({ path: `/api/invitations/${(await openInvitation(f.projectId)).token}` }),
+  },
+  {
+    method: 'POST',
+    route: '/api/invitations/:token/accept',
+    // an invitation for someone else: signed-in callers are the wrong person (403); an anonymous
+    // caller without name and password cannot create the account (400)
+    expect: { ...signedIn(403), anonymous: 400 },
+    call: async (f) => ({ path: `/api/invitations/${(await openInvitation(f.projectId)).token}/accept`, body: {} }),
+  },
+  { method: 'GET', route: '/api/admin/users', expect: adminOnly(200), call: () => ({ path: '/api/admin/users' }) },
+  {
+    method: 'POST',
+    route: '/api/admin/users',
+    expect: adminOnly(201),
+    call: () => ({
+      path: '/api/admin/users',
+      body: { email: uniqueEmail('created'), name: 'Made by admin', password: 'long-enough-password', siteRole: 'guest' },
+    }),
+  },
+  {
+    method: 'PATCH',
+    route: '/api/admin/users',
+    expect: adminOnly(200),
+    call: (f) => ({ path: '/api/admin/users', body: { id: f.adminTargetId, name: 'Renamed by admin' } }),
+  },
+  {
+    method: 'PATCH',
+    route: '/api/admin/users/:id',
+    expect: adminOnly(200),
+    call: (f) => ({ path: `/api/admin/users/${f.adminTargetId}`, body: { siteRole: 'staff' } }),
+  },
+];
+
+describe('route × role matrix', () => {
+  const emails = {} as Record<Exclude<Actor, 'anonymous'>, string>;
+  const sessions = {} as Record<Actor, Session>;
+  const fixture = {} as Fixture;
+
+  beforeAll(async () => {
+    const guest = await makeUser(t.db, 'guest', 'guest');
+    const nonMember = await makeUser(t.db, 'non-member', 'staff');
+    const viewer = await makeUser(t.db, 'viewer', 'guest');
+    const engineer = await makeUser(t.db, 'engineer', 'staff');
+    const lead = await makeUser(t.db, 'lead', 'staff');
+    const admin = await makeUser(t.db, 'admin', 'admin');
+    const target = await makeUser(t.db, 'target', 'guest');
+    const adminTarget = await makeUser(t.db, 'admin-target', 'guest');
+    Object.assign(emails, {
+      guest: guest.email,
+      nonMember: nonMember.email,
+      viewer: viewer.email,
+      engineer: engineer.email,
+      lead: lead.email,
+      admin: admin.email,
+    });
+    fixture.projectId = await makeProject(t.db, [
+      { id: lead.id, role: 'lead' },
+      { id: engineer.id, role: 'engineer' },
+      { id: viewer.id, role: 'viewer' },
+      { id: target.id, role: 'engineer' },
+    ]);
+    fixture.targetMemberId = target.id;
+    fixture.adminTargetId = adminTarget.id;
+    for (const actor of ACTORS) sessions[actor] = await sessionFor(t.app, actor === 'anonymous' ? null : emails[actor]);
+  });
+  afterAll(() => t.close());
+
+  it('has a row for every registered API route', () => {
+    const inTable = ROWS.map((r) => `${r.method} ${r.route}`).sort();
+    expect(inTable).toEqual(registeredRoutes(t.app));
+  });
+
+  describe.each(ROWS)('$method $route', (row) => {
+    it.each(ACTORS)('as %s', async (actor) => {
+      const session =
+        row.ownSession ? await sessionFor(t.app, actor === 'anonymous' ? null : emails[actor]) : sessions[actor];
+      const { path, body } = await row.call(fixture, actor);
+      const res = await session.request(row.method, path, body);
+      expect(res.status, `${row.method} ${path} as ${actor}: ${JSON.stringify(res.body)}`).toBe(row.expect[actor]);
+      if (res.status >= 400) {
+        // the one error shape, always
+        expect(res.body.error).toMatchObject({ code: expect.any(String), message: expect.any(String) });
+      }
+    });
+  });
+});

@@ -28,8 +28,12 @@ export function InviteForm({ projectId }: { projectId: number }) {
     setFormError(null);
     setSent(null);
     try {
-      const invitation = await invite.mutateAsync(values);
-      setSent(`We e-mailed an invitation to ${invitation.email}. The link works until ${formatDateTime(invitation.expiresAt)}.`);
+      const { invitation, mailSent } = await invite.mutateAsync(values);
+      if (mailSent) {
+        setSent(`We e-mailed an invitation to ${invitation.email}. The link works until ${formatDateTime(invitation.expiresAt)}.`);
+      } else {
+        setFormError(`The invitation for ${invitation.email} is saved, but the mail could not be sent. Check the mail settings, then revoke it and invite again.`);
+      }
       form.reset({ email: '', role: values.role });
     } catch (e) {
       setFormError(applyServerErrors(e, form.setError));

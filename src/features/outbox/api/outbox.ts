@@ -4,11 +4,12 @@ import { api } from '../../../lib/api-client';
 
 export const outboxKeys = { all: ['outbox'] as const };
 
-// Mail arrives at any time: always ask again when the page opens.
+// Mail arrives at any time (a reset mail is sent after the answer): ask on open and every few seconds.
 export const outboxQuery = queryOptions({
   queryKey: outboxKeys.all,
   queryFn: async () => (await api.get<{ messages: OutboxMessage[] }>('/outbox')).messages,
   staleTime: 0,
+  refetchInterval: 3000,
 });
 
 export const useOutbox = () => useQuery(outboxQuery);

@@ -23,7 +23,7 @@ describe('accounts (browser)', () => {
     const page = await context.newPage();
     await page.goto(`${baseUrl}/signin`);
     await page.getByRole('link', { name: /Forgot password/ }).click();
-    await page.getByLabel('E-mail').fill(user.email);
+    await page.getByLabel('E-mail', { exact: true }).fill(user.email);
     await page.getByRole('button', { name: 'Send the link' }).click();
     await expect.poll(() => page.getByText(/If an account exists for that e-mail/).isVisible()).toBe(true);
 
@@ -49,8 +49,8 @@ describe('accounts (browser)', () => {
     await page.waitForURL(`${baseUrl}/projects`);
     await page.getByRole('link', { name: 'Users' }).click();
     const email = uniqueEmail('by-admin');
-    await page.getByLabel('E-mail').fill(email);
-    await page.getByLabel('Name').fill('Mira Quell');
+    await page.getByLabel('E-mail', { exact: true }).fill(email);
+    await page.getByLabel('Name', { exact: true }).fill('Mira Quell');
     await page.getByLabel('Password', { exact: true }).fill('long-enough-pass');
     await page.getByLabel('Site role', { exact: true }).selectOption('staff');
     await page.getByRole('button', { name: 'Create user' }).click();

@@ -26,7 +26,7 @@ export async function launchBrowser(): Promise<Browser> {
 
 export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD) {
   await page.goto(`${baseUrl}/signin`);
-  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('E-mail', { exact: true }).fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
 }

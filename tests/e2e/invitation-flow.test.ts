@@ -19,7 +19,7 @@ describe('invitations (browser)', () => {
     await signIn(lead, baseUrl, 'lead@fanlight.test');
     await lead.waitForURL(`${baseUrl}/projects`);
     await lead.getByRole('link', { name: demoProject.name }).click();
-    await lead.getByLabel('E-mail').fill(colleague);
+    await lead.getByLabel('E-mail', { exact: true }).fill(colleague);
     await lead.getByLabel('Role', { exact: true }).selectOption('engineer');
     await lead.getByRole('button', { name: 'Send invitation' }).click();
     await expect.poll(() => lead.getByText(`We e-mailed an invitation to ${colleague}`).isVisible()).toBe(true);
@@ -36,7 +36,7 @@ describe('invitations (browser)', () => {
     await message.getByRole('link', { name: /\/invitations\// }).click();
     await page.waitForURL(/\/invitations\//);
     await expect.poll(() => page.getByText(demoProject.name).first().isVisible()).toBe(true);
-    await page.getByLabel('Name').fill('Rafe Colleague');
+    await page.getByLabel('Name', { exact: true }).fill('Rafe Colleague');
     await page.getByLabel('Password', { exact: true }).fill('colleague-password-1');
     await page.getByLabel('Repeat the password').fill('colleague-password-1');
     await screenshot(page, 'accept-invitation');
@@ -61,7 +61,7 @@ describe('invitations (browser)', () => {
     await signIn(page, baseUrl, 'engineer@fanlight.test');
     await page.waitForURL(`${baseUrl}/projects`);
     const name = `<script>window.__pwned=1</script><img src=x onerror="window.__pwned=2"> '; DROP TABLE projects; --`;
-    await page.getByLabel('Name').fill(name);
+    await page.getByLabel('Name', { exact: true }).fill(name);
     await page.getByRole('button', { name: 'Create project' }).click();
     await page.waitForURL(/\/projects\/\d+$/);
     await expect.poll(() => page.getByRole('heading', { name }).isVisible()).toBe(true);

@@ -1,0 +1,95 @@
+/**
+ * Streams the samples of a WAV data chunk into one Float32Array per requested channel, block by block,
+ * so memory holds the output channels plus one block. PCM is scaled to ±1 full scale by dividing by
+ * 2^(bits−1) (8-bit PCM is unsigned, offset 128), the convention of AES17 full-scale and of most
+ * acquisition software (common practice); IEEE float is taken as it is, with NaN/±Inf reported and read as 0.
+ *
+ * Byte order: WAV is little-endian; the typed-array views assume a little-endian host (x86, ARM).
+ */
+import type { ByteSource } from './byte-source';
+import type { NonFiniteReport, ProgressCallback, WavLayout } from './recording';
+import { RecordingError } from './recording-error';
+import { isFloat } from './wav-header';
+
+const BLOCK_BYTES = 4 * 1024 * 1024;
+
+export interface WavSampleRequest {
+  layout: WavLayout;
+  channelCount: number;
+  frames: number;
+  channels: number[];
+  onProgress?: ProgressCallback;
+  isCancelled?: () => boolean;
+}
+
+/** Typed views need an offset that is a multiple of the element size; copy when the slice is not. */
+function aligned(bytes: Uint8Array, size: number): Uint8Array {
+  return bytes.byteOffset % size === 0 ? bytes : bytes.slice();
+}
+
+export async function readWavSamples(
+  source: ByteSource,
+  req: WavSampleRequest,
+): Promise<{ samples: Float32Array[]; nonFinite: NonFiniteReport[] }> {
+  const { layout, channelCount, frames, channels } = req;
+  const bytesPerSample = layout.bitsPerSample / 8;
+  const framesPerBlock = Math.max(1, Math.floor(BLOCK_BYTES / layout.blockAlign));
+  const out = channels.map(() => new Float32Array(frames));
+  const bad = channels.map((channel) => ({ channel, count: 0, firstFrame: -1 }));
+  const float = isFloat(layout);
+
+  for (let start = 0; start < frames; start += framesPerBlock) {
+    if (req.isCancelled?.()) throw new RecordingError('CANCELLED', `Reading ${source.name} was stopped.`);
+    const n = Math.min(framesPerBlock, frames - start);
+    const offset = layout.dataOffset + start * layout.blockAlign;
+    const bytes = await source.read(offset, n * layout.blockAlign);
+    if (bytes.byteLength < n * layout.blockAlign) {
+      throw new RecordingError('READ_FAILED', `${source.name}: only ${bytes.byteLength} bytes could be read at byte offset ${offset}.`);
+    }
+    const a = bytesPerSample === 2 || bytesPerSample === 4 || bytesPerSample === 8 ? aligned(bytes, bytesPerSample) : bytes;
+    const count = n * channelCount;
+    for (let c = 0; c < channels.length; c++) {
+      const ch = channels[c];
+      const dst = out[c];
+      if (float) {
+        const v = bytesPerSample === 4 ? new Float32Array(a.buffer, a.byteOffset, count) : new Float64Array(a.buffer, a.byteOffset, count);
+        decodeFloat(v, ch, channelCount, n, dst, start, bad[c]);
+      } else if (bytesPerSample === 2) {
+        const v = new Int16Array(a.buffer, a.byteOffset, count);
+        for (let i = 0, j = ch; i < n; i++, j += channelCount) dst[start + i] = v[j] * (1 / 32768);
+      } else if (bytesPerSample === 3) {
+        const stride = layout.blockAlign;
+        for (let i = 0, j = ch * 3; i < n; i++, j += stride) {
+          const x = (a[j] | (a[j + 1] << 8) | (a[j + 2] << 16)) << 8; // sign-extend from bit 23
+          dst[start + i] = (x >> 8) * (1 / 8388608);
+        }
+      } else if (bytesPerSample === 4) {
+        const v = new Int32Array(a.buffer, a.byteOffset, count);
+        for (let i = 0, j = ch; i < n; i++, j += channelCount) dst[start + i] = v[j] * (1 / 2147483648);
+      } else {
+        for (let i = 0, j = ch; i < n; i++, j += channelCount) dst[start + i] = (a[j] - 128) * (1 / 128);
+      }
+    }
+    req.onProgress?.(Math.min(1, (start + n) / frames));
+  }
+  return { samples: out, nonFinite: bad.filter((b) => b.count > 0) };
+}
+
+function decodeFloat(
+  v: Float32Array | Float64Array,
+  ch: number,
+  stride: number,
+  n: number,
+  dst: Float32Array,
+  start: number,
+  bad: NonFiniteReport,
+): void {
+  for (let i = 0, j = ch; i < n; i++, j += stride) {
+    const x = v[j];
+    if (Number.isFinite(x)) dst[start + i] = x;
+    else {
+      dst[start + i] = 0;
+      if (bad.count++ === 0) bad.firstFrame = start + i;
+    }
+  }
+}

@@ -116,6 +116,7 @@ export async function readCsv(
   let timeDecimals = 0;
   let row = 0; // 1-based line number in the file
   let dataRows = 0;
+  let firstDataRow = 0;
 
   const setup = (first: string[], sample: string[]) => {
     const d = delimiter ?? detectDelimiter(sample);
@@ -193,6 +194,7 @@ export async function readCsv(
       if (cells.length !== width) {
         throw new RecordingError('CSV_RAGGED_ROW', `${name}, row ${row}: ${cells.length} cells where the header has ${width}.`);
       }
+      if (dataRows === 0) firstDataRow = row;
       if (timeIndex >= 0) {
         const cell = cells[timeIndex].trim();
         const t = toNumber(cell, timeIndex) * timeScale;
@@ -233,15 +235,18 @@ export async function readCsv(
     if (dataRows < 2) throw new RecordingError('NO_SAMPLES', `${name} has one row only: a time column needs two rows to give a sample rate.`);
     const t = times.data;
     const meanStep = (t[times.length - 1] - t[0]) / (times.length - 1);
+    // The usual step is the median one, so the error points at the row where the spacing breaks.
+    const steps = new Float64Array(times.length - 1);
+    for (let i = 1; i < times.length; i++) steps[i - 1] = t[i] - t[i - 1];
+    const usualStep = steps.slice().sort()[steps.length >> 1];
     // Printed times are rounded: allow the rounding step as well as the relative tolerance.
     const quantum = timeDecimals > 0 ? 10 ** -timeDecimals * timeScale : 0;
-    const allowed = Math.max(tolerance * meanStep, 1.01 * quantum);
-    for (let i = 1; i < times.length; i++) {
-      const step = t[i] - t[i - 1];
-      if (Math.abs(step - meanStep) > allowed) {
+    const allowed = Math.max(tolerance * usualStep, 1.01 * quantum);
+    for (let i = 0; i < steps.length; i++) {
+      if (Math.abs(steps[i] - usualStep) > allowed) {
         throw new RecordingError(
           'CSV_TIME_IRREGULAR',
-          `${name}, row ${row - dataRows + i + 1}: the time step is ${step.toPrecision(4)} s where the mean step is ${meanStep.toPrecision(4)} s; the samples must be evenly spaced (within ${(tolerance * 100).toPrecision(2)} %).`,
+          `${name}, row ${firstDataRow + i + 1}: the time step is ${steps[i].toPrecision(4)} s where the usual step is ${usualStep.toPrecision(4)} s; the samples must be evenly spaced (within ${(tolerance * 100).toPrecision(2)} %).`,
         );
       }
     }

@@ -15,11 +15,13 @@ import { healthRoutes } from './routes/health';
 import { invitationRoutes } from './routes/invitations';
 import { outboxRoutes } from './routes/outbox';
 import { projectRoutes } from './routes/projects';
+import { recordingRoutes } from './routes/recordings';
 import { AdminService } from './services/admin-service';
 import { AuthService } from './services/auth-service';
 import { InvitationService } from './services/invitation-service';
 import { PasswordResetService } from './services/password-reset-service';
 import { ProjectService } from './services/project-service';
+import { RecordingService } from './services/recording-service';
 
 export const JSON_BODY_LIMIT = '200kb';
 
@@ -72,6 +74,7 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   api.use(csrfProtection([config.publicOrigin, ...config.extraOrigins]));
   api.use(authRoutes(auth, new PasswordResetService(db, mailer, config.publicOrigin)));
   api.use(projectRoutes(new ProjectService(db), invitations));
+  api.use(recordingRoutes(new RecordingService(db)));
   api.use(invitationRoutes(invitations));
   api.use(adminRoutes(new AdminService(db)));
   api.use(apiNotFound);

@@ -2,6 +2,7 @@
  * Every API route, for every kind of caller, against the status it must answer. The table is the
  * specification: a route registered in the app without a row here fails the first test.
  */
+import { randomBytes } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hashToken, newToken } from '../../server/services/tokens';
 import { makeProject, makeUser, sessionFor, uniqueEmail, type Session } from '../support/actors';
@@ -56,6 +57,16 @@ async function openInvitation(projectId: number, email = uniqueEmail('invitee'))
   });
   return { id, token };
 }
+
+/** Metadata of a (different each time) recording, as the Bench sends it. */
+const recordingBody = () => ({
+  name: 'run-up 3.wav',
+  fingerprint: randomBytes(32).toString('hex'),
+  format: 'wav',
+  sampleRateHz: 51200,
+  durationS: 30,
+  channels: [{ index: 0, name: 'acc housing', quantity: 'acceleration', unit: 'm/s²', calibration: { kind: 'scale', factor: 1 } }],
+});
 
 const ROWS: Row[] = [
   { method: 'GET', route: '/api/health', expect: all(200), call: () => ({ path: '/api/health' }) },
@@ -149,6 +160,18 @@ const ROWS: Row[] = [
     route: '/api/projects/:id/activity',
     expect: member('viewer', 200),
     call: (f) => ({ path: `/api/projects/${f.projectId}/activity` }),
+  },
+  {
+    method: 'GET',
+    route: '/api/projects/:id/recordings',
+    expect: member('viewer', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/recordings` }),
+  },
+  {
+    method: 'POST',
+    route: '/api/projects/:id/recordings',
+    expect: member('engineer', 201),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/recordings`, body: recordingBody() }),
   },
   {
     method: 'GET',

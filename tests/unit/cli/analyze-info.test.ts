@@ -1,0 +1,67 @@
+/** The batch command as a user runs it: `npm run -s analyze -- info FILE`, in a child process. */
+import { execFile } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { promisify } from 'node:util';
+import { describe, expect, it } from 'vitest';
+import { PROJECT_ROOT } from '../../../server/config';
+import { testChannels, wav } from '../io/wav-fixtures';
+
+const run = promisify(execFile);
+const dir = mkdtempSync(path.join(tmpdir(), 'fanlight-cli-'));
+
+async function analyze(...args: string[]) {
+  try {
+    const { stdout, stderr } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT });
+    return { code: 0, stdout, stderr };
+  } catch (e) {
+    const err = e as { code: number; stdout: string; stderr: string };
+    return { code: err.code, stdout: err.stdout, stderr: err.stderr };
+  }
+}
+
+describe('npm run -s analyze -- info', () => {
+  it('prints the contract JSON for a 4-channel 24-bit WAV', async () => {
+    const file = path.join(dir, 'four.wav');
+    writeFileSync(file, wav(testChannels(4, 51200), { bits: 24, sampleRateHz: 51200 }));
+    const r = await analyze('info', file);
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.stdout)).toEqual({
+      format: 'wav',
+      sampleRate: 51200,
+      frames: 51200,
+      durationS: 1,
+      channels: [0, 1, 2, 3].map((i) => ({ index: i, name: `ch${i + 1}`, unit: null })),
+    });
+  });
+
+  it('prints channel names and units from a CSV header', async () => {
+    const file = path.join(dir, 'table.csv');
+    writeFileSync(file, 'time [s];mic [Pa];speed [rpm]\n0,00;0,1;1000\n0,01;0,2;1010\n');
+    const r = await analyze('info', file);
+    expect(JSON.parse(r.stdout)).toMatchObject({
+      format: 'csv',
+      frames: 2,
+      channels: [
+        { index: 0, name: 'mic', unit: 'Pa' },
+        { index: 1, name: 'speed', unit: 'rpm' },
+      ],
+    });
+    expect(JSON.parse(r.stdout).sampleRate).toBeCloseTo(100, 6);
+  });
+
+  it('exits 2 with one sentence on stderr, no stack, for bad input', async () => {
+    const file = path.join(dir, 'broken.wav');
+    writeFileSync(file, 'RIFF\x10\x00\x00\x00WAVEjunkjunk');
+    const r = await analyze('info', file);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe('');
+    const lines = r.stderr.trim().split('\n');
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toMatch(/^broken\.wav has no fmt chunk/);
+    const missing = await analyze('info', path.join(dir, 'nope.wav'));
+    expect(missing.code).toBe(2);
+    expect(missing.stderr.trim()).toMatch(/nope\.wav does not exist\.$/);
+  });
+});

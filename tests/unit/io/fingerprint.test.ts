@@ -16,7 +16,7 @@ describe('fingerprint', () => {
   it('is the same from a Blob and from memory, and changes when one sample changes', async () => {
     const bytes = wav(testChannels(2, 200_000));
     const a = await fingerprint(memorySource(bytes));
-    expect(await fingerprint(blobSource(new Blob([bytes]), 'x.wav'))).toBe(a);
+    expect(await fingerprint(blobSource(new Blob([new Uint8Array(bytes)]), 'x.wav'))).toBe(a);
     const edited = bytes.slice();
     edited[Math.floor(bytes.length / 9) + 100] ^= 1;
     expect(await fingerprint(memorySource(edited))).not.toBe(a);

@@ -17,7 +17,7 @@ export function recordingRoutes(recordings: RecordingService): Router {
   router.post('/projects/:id/recordings', requireSession, validateBody(registerRecordingBody), async (req, res) => {
     const { id } = parseParams(projectIdParams, req.params);
     const { recording, created } = await recordings.register(currentUser(req), id, req.body);
-    res.status(created ? 201 : 200).json({ recording });
+    res.status(created ? 201 : 200).json({ recording, created });
   });
 
   return router;

@@ -3,6 +3,7 @@ import { AppShell } from '../components/layouts/app-shell';
 import { RequireSignIn } from '../components/layouts/require-sign-in';
 import { paths } from '../config/paths';
 import { AdminUsersPage } from './routes/admin-users';
+import { BenchPage } from './routes/bench';
 import { ForgotPasswordPage } from './routes/forgot-password';
 import { InvitationPage } from './routes/invitation';
 import { NotFoundPage } from './routes/not-found';
@@ -28,6 +29,7 @@ const router = createBrowserRouter([
           { index: true, element: <Navigate to={paths.projects} replace /> },
           { path: paths.projects, element: <ProjectsPage /> },
           { path: paths.project(':id'), element: <ProjectPage /> },
+          { path: paths.bench, element: <BenchPage /> },
           { path: paths.adminUsers, element: <AdminUsersPage /> },
           { path: '*', element: <NotFoundPage /> },
         ],

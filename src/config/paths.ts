@@ -5,6 +5,7 @@ export const paths = {
   invitation: (token: string) => `/invitations/${token}`,
   projects: '/projects',
   project: (id: number | string) => `/projects/${id}`,
+  bench: '/bench',
   adminUsers: '/admin/users',
   outbox: '/outbox',
 } as const;

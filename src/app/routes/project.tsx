@@ -7,6 +7,7 @@ import { useProject } from '../../features/projects/api/projects';
 import { ActivityList } from '../../features/projects/components/activity-list';
 import { MembersSection } from '../../features/projects/components/members-section';
 import { ProjectHeader } from '../../features/projects/components/project-header';
+import { RecordingsSection } from '../../features/projects/components/recordings-section';
 import { ApiError } from '../../lib/api-client';
 
 export function ProjectPage() {
@@ -32,9 +33,7 @@ function Project({ id }: { id: number }) {
     <div className="mx-auto max-w-6xl px-6 py-8">
       <ProjectHeader project={project} />
       <div className="grid gap-6 lg:grid-cols-2">
-        <Section title="Recordings">
-          <p className="text-sm text-mist-500">Recordings arrive with the Bench, which is not built yet.</p>
-        </Section>
+        <RecordingsSection projectId={id} />
         <Section title="Views">
           <p className="text-sm text-mist-500">Shared views arrive with the Bench, too.</p>
         </Section>

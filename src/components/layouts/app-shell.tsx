@@ -18,6 +18,9 @@ export function AppShell() {
           <Link to={paths.projects} className="hover:text-mist-100">
             Projects
           </Link>
+          <Link to={paths.bench} className="hover:text-mist-100">
+            Bench
+          </Link>
           {me?.siteRole === 'admin' && (
             <Link to={paths.adminUsers} className="hover:text-mist-100">
               Users

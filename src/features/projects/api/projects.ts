@@ -7,16 +7,17 @@ import type {
 } from '../../../../server/schemas/projects';
 import { api } from '../../../lib/api-client';
 
-// Members and activity sit under the project's key, so refreshing a project refreshes them too.
+// Members, activity and recordings sit under the project's key, so refreshing a project refreshes them too.
 export const projectKeys = {
   all: ['projects'] as const,
   list: () => [...projectKeys.all, 'list'] as const,
   detail: (id: number) => [...projectKeys.all, 'detail', id] as const,
   members: (id: number) => [...projectKeys.detail(id), 'members'] as const,
   activity: (id: number) => [...projectKeys.detail(id), 'activity'] as const,
+  recordings: (id: number) => [...projectKeys.detail(id), 'recordings'] as const,
 };
 
-/** After any change in a project: its page (members, activity) and the list (counts, last activity). */
+/** After any change in a project: its page (members, activity, recordings) and the list (counts, last activity). */
 export function refreshProject(qc: QueryClient, id: number) {
   return Promise.all([
     qc.invalidateQueries({ queryKey: projectKeys.detail(id) }),

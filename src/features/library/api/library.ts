@@ -1,0 +1,55 @@
+import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import type { ChannelSetup } from '../../../../workers/io/channel-setup';
+import {
+  addToLibrary,
+  listLibrary,
+  removeFromLibrary,
+  storageEstimate,
+  updateSetup,
+  type LibraryEntry,
+} from '../library-store';
+
+// Descriptions only: the files and the decoded samples never enter the query cache.
+export const libraryKeys = {
+  all: ['library'] as const,
+  list: () => [...libraryKeys.all, 'list'] as const,
+  storage: () => [...libraryKeys.all, 'storage'] as const,
+};
+
+// The library is local: nothing changes it behind our back, and a failed read will not heal on a retry.
+const local = { staleTime: Infinity, retry: false } as const;
+
+export const libraryQuery = queryOptions({ queryKey: libraryKeys.list(), queryFn: listLibrary, ...local });
+
+export const useLibrary = () => useQuery(libraryQuery);
+
+export const storageQuery = queryOptions({ queryKey: libraryKeys.storage(), queryFn: storageEstimate, ...local });
+
+export const useStorageEstimate = () => useQuery(storageQuery);
+
+const refreshLibrary = (qc: QueryClient) => qc.invalidateQueries({ queryKey: libraryKeys.all });
+
+export function useAddToLibrary() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: ({ entry, file }: { entry: LibraryEntry; file: Blob }) => addToLibrary(entry, file),
+    onSettled: () => refreshLibrary(qc),
+  });
+}
+
+export function useUpdateSetup() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: ({ fingerprint, setup }: { fingerprint: string; setup: ChannelSetup[] }) =>
+      updateSetup(fingerprint, setup),
+    onSuccess: () => refreshLibrary(qc),
+  });
+}
+
+export function useRemoveFromLibrary() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (fingerprint: string) => removeFromLibrary(fingerprint),
+    onSettled: () => refreshLibrary(qc),
+  });
+}

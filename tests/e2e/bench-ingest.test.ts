@@ -1,0 +1,67 @@
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { testChannels, wav } from '../unit/io/wav-fixtures';
+import { launchBrowser, screenshot, signIn } from './browser';
+
+describe('the Bench takes a recording in (browser)', () => {
+  const baseUrl = inject('baseUrl');
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(() => browser?.close());
+
+  it('a dropped 4-channel WAV shows 4 channels and its duration, and is still in the library after a reload', async () => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await signIn(page, baseUrl, 'engineer@fanlight.test');
+    await page.waitForURL(`${baseUrl}/projects`);
+    await page.getByRole('link', { name: 'Bench' }).click();
+    await page.waitForURL(/\/bench/);
+
+    // 12.5 s of 4 channels, 24-bit at 51.2 kHz (7.7 MB), made here like an acquisition export
+    const bytes = wav(testChannels(4, 640_000, 51200), { bits: 24, sampleRateHz: 51200 });
+    await page.getByTestId('drop-zone-input').setInputFiles({ name: 'bench-run-up.wav', mimeType: 'audio/wav', buffer: Buffer.from(bytes) });
+
+    const rows = page.getByTestId('channel-list').locator('tbody tr');
+    await expect.poll(() => rows.count(), { timeout: 20_000 }).toBe(4);
+    expect(await page.getByTestId('recording-duration').textContent()).toContain('12.50 s');
+    await page.getByLabel('Name of channel 1').fill('acc inverter housing');
+    await page.getByLabel('Quantity of channel 1').selectOption('acceleration');
+    await expect.poll(() => page.getByTestId('setup-save-state').textContent()).toMatch(/Setup saved/);
+    await screenshot(page, 'bench-ingest');
+
+    await page.reload();
+    const entry = page.getByTestId('library-entry').filter({ hasText: 'bench-run-up.wav' });
+    await expect.poll(() => entry.count(), { timeout: 20_000 }).toBe(1);
+    await expect.poll(() => rows.count(), { timeout: 20_000 }).toBe(4);
+    expect(await page.getByLabel('Name of channel 1').inputValue()).toBe('acc inverter housing');
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+
+  it('a broken file gets one clear sentence and leaves the open recording alone', async () => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await signIn(page, baseUrl, 'engineer@fanlight.test');
+    await page.waitForURL(`${baseUrl}/projects`);
+    await page.goto(`${baseUrl}/bench`);
+    await page.getByTestId('drop-zone-input').setInputFiles({
+      name: 'good.wav',
+      mimeType: 'audio/wav',
+      buffer: Buffer.from(wav(testChannels(2, 8000))),
+    });
+    await expect.poll(() => page.getByTestId('channel-list').locator('tbody tr').count(), { timeout: 20_000 }).toBe(2);
+    await page.getByTestId('drop-zone-input').setInputFiles({
+      name: 'cut.wav',
+      mimeType: 'audio/wav',
+      buffer: Buffer.from('RIFF\x24\x00\x00\x00WAVEdata\x10\x00\x00\x00'),
+    });
+    await expect.poll(() => page.getByText(/cut\.wav.*no fmt chunk/).first().isVisible(), { timeout: 20_000 }).toBe(true);
+    expect(await page.getByTestId('recording-name').textContent()).toContain('good.wav');
+    expect(await page.getByTestId('channel-list').locator('tbody tr').count()).toBe(2);
+    await context.close();
+  });
+});

@@ -11,3 +11,26 @@ declare module 'wav-decoder' {
   const wavDecoder: { decode: typeof decode };
   export default wavDecoder;
 }
+
+declare module '@echogarden/pffft-wasm/simd' {
+  import type { PffftModule } from './dsp/pffft-module';
+  const factory: () => Promise<PffftModule>;
+  export default factory;
+}
+
+declare module '@echogarden/pffft-wasm' {
+  import type { PffftModule } from './dsp/pffft-module';
+  const factory: () => Promise<PffftModule>;
+  export default factory;
+}
+
+declare module 'fft.js' {
+  export default class FFT {
+    constructor(size: number);
+    readonly size: number;
+    createComplexArray(): number[];
+    realTransform(out: number[], data: ArrayLike<number>): void;
+    completeSpectrum(out: number[]): void;
+    transform(out: number[], data: ArrayLike<number>): void;
+  }
+}

@@ -1,5 +1,6 @@
 /** `npm run bench`: the performance figures the README quotes. Not a test: it measures and prints. */
 import { runDecodeBench } from './decode-bench';
+import { runMapBench } from './map-bench';
 
 const log = (line: string) => console.log(`  ${line}`);
 console.log('Fanlight benchmarks (this machine: Node ' + process.version + ')');
@@ -9,4 +10,9 @@ const targets = [
   `37 MB WAV under 0.3 s: ${decode.smallBestS < 0.3 ? 'met' : 'NOT met'}`,
   ...(decode.bigPeakRatio !== undefined ? [`2 GB WAV peak memory under 2.5× decoded: ${decode.bigPeakRatio < 2.5 ? 'met' : 'NOT met'}`] : []),
 ];
+console.log('maps (workers/dsp, worker threads):');
+const map = await runMapBench(log);
+if (map.scipyRfft60S !== undefined) {
+  targets.push(`60 s map at least 2× faster than scipy's batched rfft: ${map.scipyRfft60S / map.fanlight60S >= 2 ? 'met' : 'NOT met'} (${(map.scipyRfft60S / map.fanlight60S).toFixed(2)}×)`);
+}
 for (const t of targets) log(t);

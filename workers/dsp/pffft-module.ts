@@ -6,5 +6,7 @@ export interface PffftModule {
   _pffft_aligned_malloc(bytes: number): number;
   _pffft_aligned_free(ptr: number): void;
   _pffft_transform_ordered(setup: number, input: number, output: number, work: number, direction: 0 | 1): void;
+  _pffft_transform(setup: number, input: number, output: number, work: number, direction: 0 | 1): void;
+  _pffft_zreorder(setup: number, input: number, output: number, direction: 0 | 1): void;
   _pffft_simd_size(): number;
 }

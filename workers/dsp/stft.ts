@@ -67,22 +67,12 @@ export function computeFrames(
   to: number,
   out: Float32Array,
 ): void {
-  const n = layout.blockSize;
   const bins = layout.bins;
-  const block = new Float32Array(n);
-  const power = new Float32Array(bins);
-  const w = win.w;
   // mean square per bin: 2|X|²/(Σw)² inside, |X|²/(Σw)² at DC and Nyquist
   const inner = 2 / (win.sum * win.sum);
   const edge = 1 / (win.sum * win.sum);
   for (let f = from; f < to; f++) {
-    const start = f * layout.hop - x0;
-    for (let i = 0; i < n; i++) block[i] = x[start + i] * w[i];
-    fft.power(block, power);
-    const row = (f - from) * bins;
-    out[row] = power[0] * edge;
-    for (let k = 1; k < bins - 1; k++) out[row + k] = power[k] * inner;
-    out[row + bins - 1] = power[bins - 1] * edge;
+    fft.framePower(x, f * layout.hop - x0, win, out, (f - from) * bins, inner, edge);
   }
 }
 

@@ -34,6 +34,11 @@ export interface SpectralWindow {
   coherentGain: number;
   /** Equivalent noise bandwidth in bins, N·Σw²/(Σw)² (Harris [1], Table 1). */
   enbwBins: number;
+  /**
+   * The window as a convolution kernel on the DFT, c_0 = a_0, c_±m = (−1)^m·a_m/2: multiplying a block by
+   * a periodic cosine-sum window equals convolving its spectrum with these taps (Harris [1], §V).
+   */
+  spectralKernel: Float64Array;
 }
 
 export function makeWindow(name: WindowName, n: number): SpectralWindow {
@@ -49,5 +54,9 @@ export function makeWindow(name: WindowName, n: number): SpectralWindow {
     sum += v;
     sumSquares += v * v;
   }
-  return { name, w, sum, sumSquares, coherentGain: sum / n, enbwBins: (n * sumSquares) / (sum * sum) };
+  const m = a.length - 1;
+  const spectralKernel = new Float64Array(2 * m + 1);
+  spectralKernel[m] = a[0];
+  for (let k = 1; k <= m; k++) spectralKernel[m - k] = spectralKernel[m + k] = (k % 2 ? -a[k] : a[k]) / 2;
+  return { name, w, sum, sumSquares, coherentGain: sum / n, enbwBins: (n * sumSquares) / (sum * sum), spectralKernel };
 }

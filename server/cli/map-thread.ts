@@ -1,8 +1,8 @@
-/** A worker thread of the batch CLI: computes map chunks (workers/dsp/map-chunk.ts) on request. */
+/** A worker thread of the batch CLI: computes map chunks (workers/dsp/map-chunk.ts) into a shared map. */
 import { parentPort } from 'node:worker_threads';
-import { computeMapChunk, type MapChunkRequest } from '../../workers/dsp/map-chunk';
+import { computeMapChunkShared, type MapChunkRequest } from '../../workers/dsp/map-chunk';
 
-parentPort!.on('message', async (req: MapChunkRequest & { id: number }) => {
-  const result = await computeMapChunk(req);
-  parentPort!.postMessage({ id: req.id, ...result }, [result.power.buffer as ArrayBuffer]);
+parentPort!.on('message', async (req: Omit<MapChunkRequest, 'x0'> & { id: number; map: Float32Array }) => {
+  const backend = await computeMapChunkShared(req);
+  parentPort!.postMessage({ id: req.id, backend });
 });

@@ -4,13 +4,19 @@
  */
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
-import { chunkSampleRange, frameChunks, type MapChunkResult } from '../../workers/dsp/map-chunk';
+import { frameChunks } from '../../workers/dsp/map-chunk';
 import { stftLayout, type StftLayout, type StftSettings } from '../../workers/dsp/stft';
+
+function shared(x: Float32Array): Float32Array {
+  const copy = new Float32Array(new SharedArrayBuffer(x.byteLength));
+  copy.set(x);
+  return copy;
+}
 
 export class MapThreadPool {
   private readonly workers: Worker[];
   private next = 0;
-  private readonly pending = new Map<number, (r: MapChunkResult) => void>();
+  private readonly pending = new Map<number, () => void>();
 
   constructor(size = availableParallelism()) {
     this.workers = Array.from({ length: Math.max(1, size) }, () => {
@@ -19,8 +25,8 @@ export class MapThreadPool {
       const w = new Worker(`import('tsx/esm/api').then((t) => { t.register(); return import(${JSON.stringify(entry)}); });`, {
         eval: true,
       });
-      w.on('message', (m: MapChunkResult & { id: number }) => {
-        this.pending.get(m.id)?.(m);
+      w.on('message', (m: { id: number }) => {
+        this.pending.get(m.id)?.();
         this.pending.delete(m.id);
       });
       return w;
@@ -31,19 +37,21 @@ export class MapThreadPool {
     return this.workers.length;
   }
 
-  /** The whole map (frames × bins mean-square powers), computed in chunks across the threads. */
+  /**
+   * The whole map (frames × bins mean-square powers), computed in chunks across the threads. Samples and
+   * map live in SharedArrayBuffers that every thread reads and writes in place.
+   */
   async map(x: Float32Array, fsHz: number, settings: StftSettings): Promise<{ layout: StftLayout; power: Float32Array }> {
     const layout = stftLayout(x.length, fsHz, settings);
-    const power = new Float32Array(layout.frames * layout.bins);
+    const samples = x.buffer instanceof SharedArrayBuffer ? x : shared(x);
+    const power = new Float32Array(new SharedArrayBuffer(layout.frames * layout.bins * 4));
     const perChunk = Math.max(1, Math.ceil(layout.frames / (this.workers.length * 4)));
     await Promise.all(
       frameChunks(layout.frames, perChunk).map(([from, to], i) => {
-        const [s0, s1] = chunkSampleRange(layout, from, to);
-        const samples = x.slice(s0, s1);
         const id = this.next++;
-        const done = new Promise<MapChunkResult>((resolve) => this.pending.set(id, resolve));
-        this.workers[i % this.workers.length].postMessage({ id, samples, x0: s0, layout, settings, from, to }, [samples.buffer]);
-        return done.then((r) => power.set(r.power, from * layout.bins));
+        const done = new Promise<void>((resolve) => this.pending.set(id, resolve));
+        this.workers[i % this.workers.length].postMessage({ id, samples, map: power, layout, settings, from, to });
+        return done;
       }),
     );
     return { layout, power };

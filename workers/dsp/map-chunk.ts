@@ -32,16 +32,31 @@ export function chunkSampleRange(layout: StftLayout, from: number, to: number): 
 
 const cache = new Map<string, { fft: RealFft; win: SpectralWindow }>();
 
-export async function computeMapChunk(req: MapChunkRequest): Promise<MapChunkResult> {
+async function tools(req: Pick<MapChunkRequest, 'settings' | 'backend'>) {
   const key = `${req.settings.window}:${req.settings.blockSize}:${req.backend ?? 'auto'}`;
-  let tools = cache.get(key);
-  if (!tools) {
-    tools = { fft: await createRealFft(req.settings.blockSize, req.backend ?? 'auto'), win: makeWindow(req.settings.window, req.settings.blockSize) };
-    cache.set(key, tools);
+  let t = cache.get(key);
+  if (!t) {
+    t = { fft: await createRealFft(req.settings.blockSize, req.backend ?? 'auto'), win: makeWindow(req.settings.window, req.settings.blockSize) };
+    cache.set(key, t);
   }
+  return t;
+}
+
+export async function computeMapChunk(req: MapChunkRequest): Promise<MapChunkResult> {
+  const { fft, win } = await tools(req);
   const power = new Float32Array((req.to - req.from) * req.layout.bins);
-  computeFrames(req.samples, req.x0, req.layout, tools.win, tools.fft, req.from, req.to, power);
-  return { from: req.from, to: req.to, power, backend: tools.fft.backend };
+  computeFrames(req.samples, req.x0, req.layout, win, fft, req.from, req.to, power);
+  return { from: req.from, to: req.to, power, backend: fft.backend };
+}
+
+/**
+ * The same, written straight into a map that all threads share (SharedArrayBuffer): no copies of the
+ * samples in, none of the powers out.
+ */
+export async function computeMapChunkShared(req: Omit<MapChunkRequest, 'x0'> & { map: Float32Array }): Promise<string> {
+  const { fft, win } = await tools(req);
+  computeFrames(req.samples, 0, req.layout, win, fft, req.from, req.to, req.map.subarray(req.from * req.layout.bins, req.to * req.layout.bins));
+  return fft.backend;
 }
 
 /** Splits frames into chunks of about `framesPerChunk`, in order, so a map can paint as they arrive. */

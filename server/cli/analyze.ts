@@ -3,42 +3,17 @@
  * bad input exits with status 2 and one sentence on stderr (the same sentence the app shows).
  * The same workers/io and workers/dsp code as the browser does the work.
  */
-import path from 'node:path';
 import { readRecordingHeader } from '../../workers/io/decode-recording';
 import { RecordingError } from '../../workers/io/recording-error';
+import { SpeedError } from '../../workers/dsp/speed';
+import { levelsCommand } from './commands/levels';
+import { mapCommand } from './commands/map';
+import { spectrumCommand } from './commands/spectrum';
+import { speedCommand } from './commands/speed';
 import { openFileSource } from './node-file-source';
+import { Options, parseArgs, UsageError } from './options';
 
-class UsageError extends Error {}
-
-const USAGE = 'usage: npm run -s analyze -- info FILE';
-
-interface Parsed {
-  command: string;
-  file: string;
-  options: Record<string, string | true>;
-}
-
-export function parseArgs(argv: string[]): Parsed {
-  const [command, ...rest] = argv;
-  if (!command) throw new UsageError(`Name a command. ${USAGE}`);
-  const positional: string[] = [];
-  const options: Record<string, string | true> = {};
-  for (let i = 0; i < rest.length; i++) {
-    const a = rest[i];
-    if (a.startsWith('--')) {
-      const key = a.slice(2);
-      const next = rest[i + 1];
-      if (next !== undefined && !next.startsWith('--')) {
-        options[key] = next;
-        i++;
-      } else options[key] = true;
-    } else positional.push(a);
-  }
-  if (positional.length !== 1) throw new UsageError(`Give exactly one FILE. ${USAGE}`);
-  // npm runs scripts from the package folder; a relative path means the caller's folder.
-  const file = path.resolve(process.env.INIT_CWD ?? process.cwd(), positional[0]);
-  return { command, file, options };
-}
+const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map FILE [options] (see the README, "Batch mode")';
 
 async function info(file: string) {
   const source = await openFileSource(file);
@@ -56,19 +31,23 @@ async function info(file: string) {
   }
 }
 
-const commands: Record<string, (p: Parsed) => Promise<unknown>> = {
-  info: (p) => info(p.file),
+const commands: Record<string, (file: string, o: Options) => Promise<unknown>> = {
+  info: (file) => info(file),
+  spectrum: spectrumCommand,
+  levels: levelsCommand,
+  speed: speedCommand,
+  map: mapCommand,
 };
 
 export async function main(argv: string[]): Promise<number> {
   try {
-    const parsed = parseArgs(argv);
+    const parsed = parseArgs(argv, USAGE);
     const run = commands[parsed.command];
     if (!run) throw new UsageError(`Unknown command "${parsed.command}". ${USAGE}`);
-    process.stdout.write(`${JSON.stringify(await run(parsed))}\n`);
+    process.stdout.write(`${JSON.stringify(await run(parsed.file, new Options(parsed.options)))}\n`);
     return 0;
   } catch (e) {
-    if (e instanceof RecordingError || e instanceof UsageError) {
+    if (e instanceof RecordingError || e instanceof UsageError || e instanceof SpeedError || e instanceof RangeError) {
       process.stderr.write(`${e.message.replace(/\s+/g, ' ')}\n`);
       return 2;
     }

@@ -87,3 +87,15 @@ export function averageFrames(map: Float32Array, bins: number, from: number, to:
   for (let k = 0; k < bins; k++) avg[k] /= count;
   return avg;
 }
+
+/** Linear power average of the listed frames (e.g. those inside a speed range). */
+export function averageFrameList(map: Float32Array, bins: number, frames: readonly number[]): Float64Array {
+  const avg = new Float64Array(bins);
+  for (const f of frames) {
+    const row = f * bins;
+    for (let k = 0; k < bins; k++) avg[k] += map[row + k];
+  }
+  const count = Math.max(1, frames.length);
+  for (let k = 0; k < bins; k++) avg[k] /= count;
+  return avg;
+}

@@ -25,3 +25,12 @@ describe('map against speed', () => {
     expect(framesInSpeedRange(rpm, 1050, 1100)).toEqual([5, 6, 7]);
   });
 });
+
+describe('averaged spectrum over a speed range', () => {
+  it('is the linear mean of the frames in the range (Welch 1967: averaged periodograms)', async () => {
+    const { averageFrameList } = await import('../../../workers/dsp/stft');
+    const bins = 3;
+    const map = Float32Array.from([1, 2, 3, 10, 20, 30, 100, 200, 300]);
+    expect([...averageFrameList(map, bins, [0, 2])]).toEqual([50.5, 101, 151.5]);
+  });
+});

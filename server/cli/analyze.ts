@@ -6,6 +6,7 @@
 import { readRecordingHeader } from '../../workers/io/decode-recording';
 import { RecordingError } from '../../workers/io/recording-error';
 import { SpeedError } from '../../workers/dsp/speed';
+import { inverterCommand } from './commands/inverter';
 import { levelsCommand } from './commands/levels';
 import { mapCommand } from './commands/map';
 import { spectrumCommand } from './commands/spectrum';
@@ -13,7 +14,7 @@ import { speedCommand } from './commands/speed';
 import { openFileSource } from './node-file-source';
 import { Options, parseArgs, UsageError } from './options';
 
-const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map FILE [options] (see the README, "Batch mode")';
+const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter FILE [options] (see the README, "Batch mode")';
 
 async function info(file: string) {
   const source = await openFileSource(file);
@@ -37,6 +38,7 @@ const commands: Record<string, (file: string, o: Options) => Promise<unknown>> =
   levels: levelsCommand,
   speed: speedCommand,
   map: mapCommand,
+  inverter: inverterCommand,
 };
 
 export async function main(argv: string[]): Promise<number> {

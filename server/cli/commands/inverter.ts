@@ -1,0 +1,64 @@
+/**
+ * `inverter FILE --channel I (--tacho J --ppr N | --speed-channel J [--speed-cal K]) [--pole-pairs P]
+ * [--orders 8,48] [--families 1:2,1:-2,2:1] [--cal K] [--block N]`: carrier, shifts, spread, pole pairs
+ * and the order and family tracks against speed.
+ */
+import { analyseInverter, type InverterReport } from '../../../workers/dsp/inverter-analysis';
+import { rpmAtTimes } from '../../../workers/dsp/speed';
+import { frameTimeS } from '../../../workers/dsp/stft';
+import { makeWindow } from '../../../workers/dsp/window';
+import type { Options } from '../options';
+import { UsageError } from '../options';
+import { calibrationFactor, channelIndex, readChannels, scaled } from '../recording-input';
+import { MapThreadPool } from '../thread-pool';
+import { speedCurveFrom } from './speed';
+
+function parseList<T>(o: Options, key: string, parse: (s: string) => T | null): T[] | undefined {
+  if (!o.has(key)) return undefined;
+  return o
+    .string(key)
+    .split(',')
+    .map((s) => {
+      const v = parse(s.trim());
+      if (v === null) throw new UsageError(`--${key}: "${s.trim()}" is not valid.`);
+      return v;
+    });
+}
+
+export async function inverterCommand(file: string, o: Options): Promise<Omit<InverterReport, 'families'> & { families: unknown[] }> {
+  const channel = channelIndex(o);
+  const block = o.integer('block', 8192, 256);
+  const polePairs = o.has('pole-pairs') ? o.integer('pole-pairs', undefined, 1) : undefined;
+  const orders = parseList(o, 'orders', (s) => (Number.isFinite(Number(s)) && Number(s) > 0 ? Number(s) : null));
+  const families = parseList(o, 'families', (s) => {
+    const m = /^(\d+):(-?\d+)$/.exec(s);
+    return m && Number(m[1]) >= 1 ? { m: Number(m[1]), n: Number(m[2]) } : null;
+  });
+  const curve = await speedCurveFrom(file, o, 'speed-cal');
+  const rec = await readChannels(file, [channel]);
+  const x = scaled(rec.samples[0], calibrationFactor(o));
+  const settings = { window: 'hann' as const, blockSize: block, overlap: 0.75 };
+  const pool = new MapThreadPool();
+  try {
+    const { layout, power } = await pool.map(x, rec.header.sampleRateHz, settings);
+    if (layout.frames < 8) throw new UsageError(`${rec.header.fileName} is too short for blocks of ${block}: it gives ${layout.frames} frames; use a smaller --block.`);
+    const times = Float64Array.from({ length: layout.frames }, (_, f) => frameTimeS(layout, f));
+    const report = analyseInverter({
+      power,
+      layout,
+      window: 'hann',
+      enbwBins: makeWindow('hann', block).enbwBins,
+      frameRpm: rpmAtTimes(curve, times),
+      polePairs,
+      orders: orders ?? [],
+      families,
+    });
+    return {
+      ...report,
+      orders: report.orders.map(({ order, rpm, rms, crossing }) => ({ order, rpm, rms, crossing })),
+      families: report.families.map(({ m, n, rpm, hz, rms, crossing, explained }) => ({ m, n, rpm, hz, rms, crossing, explained })),
+    };
+  } finally {
+    await pool.close();
+  }
+}

@@ -1,0 +1,182 @@
+/**
+ * The inverter findings on synthetic run-ups whose answers are known by construction (the levels,
+ * speeds and schedules below are invented for the tests). The structure they follow is published:
+ * carrier families at m·fc + n·fe with the parity patterns of the double Fourier series (Holmes & Lipo
+ * 2003, ch. 3) and of the radial force they drive; orders at k·fr.
+ */
+import { describe, expect, it } from 'vitest';
+import { synthesiseDrive, type FamilyComponent } from '../../../seeds/synthetic-drive';
+import { createRealFft } from '../../../workers/dsp/fft';
+import { analyseInverter } from '../../../workers/dsp/inverter-analysis';
+import { computeFrames, frameTimeS, stftLayout } from '../../../workers/dsp/stft';
+import { makeWindow } from '../../../workers/dsp/window';
+
+const FS = 51200;
+const db = (x: number) => 20 * Math.log10(x);
+
+async function analyse(x: Float32Array, rpm: (t: number) => number, extra: { polePairs?: number; orders?: number[] } = {}) {
+  const layout = stftLayout(x.length, FS, { window: 'hann', blockSize: 8192, overlap: 0.75 });
+  const win = makeWindow('hann', 8192);
+  const power = new Float32Array(layout.frames * layout.bins);
+  computeFrames(x, 0, layout, win, await createRealFft(8192), 0, layout.frames, power);
+  const frameRpm = Float64Array.from({ length: layout.frames }, (_, f) => rpm(frameTimeS(layout, f)));
+  return { layout, report: analyseInverter({ power, layout, window: 'hann', enbwBins: win.enbwBins, frameRpm, ...extra }) };
+}
+
+/** Every uncrossed point of a track within tol dB of the expected RMS. */
+function expectTrack(t: { rms: number[]; crossing: boolean[] }, rms: number, tol = 0.5) {
+  const ok = t.rms.filter((_, i) => !t.crossing[i]);
+  expect(ok.length).toBeGreaterThan(t.rms.length / 2);
+  for (const v of ok) expect(Math.abs(db(v) - db(rms))).toBeLessThan(tol);
+}
+
+describe('a run-up with a carrier schedule, measured by vibration (m + n even)', async () => {
+  const T = 20;
+  const rpm = (t: number) => 500 + (11500 * t) / T; // 500 → 12 000 rpm
+  const carrier = (t: number) => (rpm(t) < 6000 ? 8000 : 12000); // steps at 6000 rpm
+  const families: FamilyComponent[] = [
+    { m: 1, n: 1, amplitude: 0.02 },
+    { m: 1, n: -1, amplitude: 0.02 },
+    { m: 1, n: 3, amplitude: 0.01 },
+    { m: 1, n: -3, amplitude: 0.01 },
+    { m: 2, n: 0, amplitude: 0.008 },
+    { m: 2, n: 2, amplitude: 0.006 },
+    { m: 2, n: -2, amplitude: 0.006 },
+  ];
+  const x = synthesiseDrive({
+    fsHz: FS,
+    durationS: T,
+    rpm,
+    polePairs: 4,
+    carrierHz: carrier,
+    orders: [
+      { order: 8, amplitude: 0.05 },
+      { order: 24, amplitude: 0.02 },
+      { order: 48, amplitude: 0.03 },
+    ],
+    families,
+    noiseRms: 0.002,
+    seed: 3,
+  });
+  const { layout, report } = await analyse(x, rpm, { orders: [8, 24, 48] });
+
+  it('follows the carrier within one bin, away from the step', () => {
+    report.carrier.t.forEach((t, i) => {
+      if (Math.abs(rpm(t) - 6000) < 400) return;
+      expect(Math.abs(report.carrier.hz[i] - carrier(t))).toBeLessThanOrEqual(layout.binHz);
+    });
+  });
+
+  it('finds the one carrier shift, 8 → 12 kHz, at 6000 rpm within 2 %', () => {
+    expect(report.carrierShifts).toHaveLength(1);
+    const [s] = report.carrierShifts;
+    expect(Math.abs(s.rpm - 6000) / 6000).toBeLessThan(0.02);
+    expect(Math.abs(s.fromHz - 8000)).toBeLessThanOrEqual(layout.binHz);
+    expect(Math.abs(s.toHz - 12000)).toBeLessThanOrEqual(layout.binHz);
+    expect(report.carrierSpreadHz).toBeNull();
+  });
+
+  it('infers 4 pole pairs and the force pattern m + n even from the sideband offsets', () => {
+    expect(report.polePairs).toEqual({ value: 4, source: 'inferred', pattern: 'm+n even', ambiguous: false });
+  });
+
+  it('tracks orders within 0.5 dB of A/√2, flagging where a family crosses', () => {
+    expectTrack(report.orders[0], 0.05 / Math.SQRT2);
+    expectTrack(report.orders[2], 0.03 / Math.SQRT2);
+    expect(report.orders[2].crossing.some(Boolean)).toBe(true); // order 48 meets fc − 3fe on the way up
+  });
+
+  it('tracks the carrier families within 0.5 dB and ranks the strongest first', () => {
+    for (const f of families) {
+      const t = report.families.find((r) => r.m === f.m && r.n === f.n)!;
+      expectTrack(t, (f.amplitude as number) / Math.SQRT2);
+      expect(t.explained).toBe(true);
+    }
+    const top = report.strongestFamilies.slice(0, 2).map((f) => `${f.m}:${f.n}`).sort();
+    expect(top).toEqual(['1:-1', '1:1']);
+    // a family the pattern forbids is reported as not explained
+    expect(report.families.find((r) => r.m === 1 && r.n === 2)!.explained).toBe(false);
+  });
+});
+
+describe('a run-up measured on the phase current (m + n odd)', async () => {
+  const T = 12;
+  const rpm = (t: number) => 1000 + (8000 * t) / T;
+  const families: FamilyComponent[] = [
+    { m: 1, n: 2, amplitude: 0.02 },
+    { m: 1, n: -2, amplitude: 0.02 },
+    { m: 1, n: 4, amplitude: 0.006 },
+    { m: 1, n: -4, amplitude: 0.006 },
+    { m: 2, n: 1, amplitude: 0.015 },
+    { m: 2, n: -1, amplitude: 0.015 },
+  ];
+  const x = synthesiseDrive({ fsHz: FS, durationS: T, rpm, polePairs: 3, carrierHz: () => 10000, families, orders: [{ order: 6, amplitude: 0.04 }], noiseRms: 0.002, seed: 5 });
+  const { report } = await analyse(x, rpm);
+
+  it('infers 3 pole pairs and the pattern m + n odd; no shift; the families within 0.5 dB', () => {
+    expect(report.polePairs).toMatchObject({ value: 3, pattern: 'm+n odd', ambiguous: false });
+    expect(report.carrierShifts).toEqual([]);
+    for (const f of families) expectTrack(report.families.find((r) => r.m === f.m && r.n === f.n)!, (f.amplitude as number) / Math.SQRT2);
+  });
+
+  it('uses given pole pairs as given', async () => {
+    const given = await analyse(x, rpm, { polePairs: 3 });
+    expect(given.report.polePairs).toMatchObject({ value: 3, source: 'given', pattern: 'm+n odd' });
+  });
+});
+
+describe('a spread carrier', async () => {
+  const T = 8;
+  const rpm = (t: number) => 2000 + 500 * t;
+  const x = synthesiseDrive({
+    fsHz: FS,
+    durationS: T,
+    rpm,
+    polePairs: 4,
+    carrierHz: () => 10000,
+    spread: { widthHz: 1500 },
+    families: [{ m: 1, n: 0, amplitude: 0.05 }],
+    orders: [{ order: 8, amplitude: 0.04 }],
+    noiseRms: 0.001,
+    seed: 7,
+  });
+  const { report } = await analyse(x, rpm);
+
+  it('is a hump, not a line: its width within 25 % (a triangle sweep over ±750 Hz)', () => {
+    expect(report.carrierSpreadHz).not.toBeNull();
+    expect(Math.abs(report.carrierSpreadHz! - 1500) / 1500).toBeLessThan(0.25);
+    const hz = report.carrier.hz.filter(Number.isFinite);
+    for (const h of hz) expect(Math.abs(h - 10000)).toBeLessThan(100);
+  });
+
+  it('says the pole pairs cannot be told from smeared sidebands, rather than guessing', () => {
+    expect(report.polePairs.value === null || report.polePairs.ambiguous).toBe(true);
+  });
+});
+
+describe('the usual carriers (common practice: 2.5, 5, 8, 10 and 16 kHz), with sidebands spreading as speed rises', () => {
+  // up to 3600 rpm with 4 pole pairs: fe ≤ 240 Hz, so even 2.5 kHz keeps the usual pulse ratio fc/fe ≥ 10
+  it.each([2500, 5000, 8000, 10000, 16000])('finds a %i Hz carrier', async (fc) => {
+    const rpm = (t: number) => 600 + 750 * t;
+    const x = synthesiseDrive({
+      fsHz: FS,
+      durationS: 4,
+      rpm,
+      polePairs: 4,
+      carrierHz: () => fc,
+      families: [
+        { m: 1, n: 2, amplitude: 0.02 },
+        { m: 1, n: -2, amplitude: 0.02 },
+        { m: 2, n: 1, amplitude: 0.01 },
+        { m: 2, n: -1, amplitude: 0.01 },
+      ],
+      orders: [{ order: 8, amplitude: 0.03 }, { order: 16, amplitude: 0.02 }],
+      noiseRms: 0.002,
+      seed: fc,
+    });
+    const { layout, report } = await analyse(x, rpm);
+    const hz = report.carrier.hz.filter(Number.isFinite);
+    expect(hz.length).toBeGreaterThan(report.carrier.hz.length * 0.8);
+    for (const h of hz) expect(Math.abs(h - fc)).toBeLessThanOrEqual(layout.binHz);
+  });
+});

@@ -1,0 +1,125 @@
+/**
+ * What the inverter is doing, from a map of one channel and the speed: the carrier over time, its
+ * shifts, a spread carrier, the pole pairs and the family pattern, the order and family tracks against
+ * speed, and the strongest families. Shared by the Bench's workers and the batch CLI.
+ */
+import { carrierShifts, detectCarrier, runSpreadHz } from './carrier';
+import { allowedN, inferPolePairs, observeSidebandOffsets, type FamilyPattern } from './pole-pairs';
+import { frameTimeS, type StftLayout } from './stft';
+import { trackAgainstSpeed, trackGuide, type Guide } from './tracks';
+import type { WindowName } from './window';
+
+/** Half width of each window's main lobe, in bins (Harris 1978, Table 1: first zeros at ±1…±5 bins). */
+export const MAIN_LOBE_HALF_BINS: Record<WindowName, number> = { rect: 1, hann: 2, hamming: 2, 'blackman-harris': 4, flattop: 5 };
+
+export interface InverterAnalysisInput {
+  power: Float32Array;
+  layout: StftLayout;
+  window: WindowName;
+  enbwBins: number;
+  frameRpm: Float64Array;
+  polePairs?: number;
+  orders?: number[];
+  families?: { m: number; n: number }[];
+  rpmStep?: number;
+  carrierMinHz?: number;
+}
+
+export interface FamilyTrackReport {
+  m: number;
+  n: number;
+  rpm: number[];
+  hz: number[];
+  rms: number[];
+  crossing: boolean[];
+  /** The detected pattern predicts this family */
+  explained: boolean | null;
+  peakRms: number;
+  peakRpm: number;
+}
+
+export interface InverterReport {
+  carrier: { t: number[]; hz: number[] };
+  carrierShifts: { t: number; rpm: number; fromHz: number; toHz: number }[];
+  carrierSpreadHz: number | null;
+  polePairs: { value: number | null; source: 'given' | 'inferred'; pattern: FamilyPattern | null; ambiguous: boolean };
+  orders: { order: number; rpm: number[]; rms: number[]; crossing: boolean[] }[];
+  families: FamilyTrackReport[];
+  /** Families ranked by their peak level */
+  strongestFamilies: { m: number; n: number; peakRms: number; peakRpm: number; explained: boolean | null }[];
+}
+
+const round = (x: number, digits = 6) => (Number.isFinite(x) ? Number(x.toPrecision(digits)) : x);
+
+export function analyseInverter(input: InverterAnalysisInput): InverterReport {
+  const { power, layout, frameRpm } = input;
+  const carrier = detectCarrier(power, layout, { minHz: input.carrierMinHz });
+  const times = Array.from({ length: layout.frames }, (_, f) => frameTimeS(layout, f));
+  const shifts = carrierShifts(carrier.hz, (f) => frameTimeS(layout, f), frameRpm, layout.binHz);
+
+  // Spread: measured frame by frame (every second frame where the carrier is known)
+  const withCarrier = times.map((_, f) => f).filter((f) => f % 2 === 0 && Number.isFinite(carrier.hz[f]));
+  const spread = runSpreadHz(power, layout.bins, layout.binHz, carrier.hz, withCarrier);
+
+  let pole: InverterReport['polePairs'];
+  if (input.polePairs) pole = { value: input.polePairs, source: 'given', pattern: null, ambiguous: false };
+  else {
+    const est = inferPolePairs(observeSidebandOffsets(power, layout, carrier.hz, frameRpm));
+    pole = { value: est.value, source: 'inferred', pattern: est.pattern, ambiguous: est.ambiguous };
+  }
+  // With the pole pairs given, the pattern still comes from the offsets when they show one
+  if (input.polePairs) {
+    const est = inferPolePairs(observeSidebandOffsets(power, layout, carrier.hz, frameRpm));
+    if (est.value === input.polePairs) pole.pattern = est.pattern;
+  }
+
+  const ctx = { rpm: frameRpm, carrierHz: carrier.hz, polePairs: pole.value ?? NaN };
+  const familyList =
+    input.families ?? [1, 2].flatMap((m) => Array.from({ length: 11 }, (_, i) => ({ m, n: i - 5 })));
+  const orderGuides: Guide[] = (input.orders ?? []).map((order) => ({ kind: 'order', order }));
+  const familyGuides: Guide[] = familyList.map((f) => ({ kind: 'family', m: f.m, n: f.n, per: 'electrical' }));
+  const all = [...orderGuides, ...familyGuides];
+  const trackOpts = { bandwidth: { hz: 0 }, enbwBins: input.enbwBins, mainLobeBins: MAIN_LOBE_HALF_BINS[input.window], others: all };
+  const rpmStep = input.rpmStep ?? 50;
+
+  const orders = orderGuides.map((g, i) => {
+    const t = trackAgainstSpeed(trackGuide(power, layout, g, ctx, trackOpts), frameRpm, rpmStep);
+    return { order: input.orders![i], rpm: t.rpm.map((r) => round(r)), rms: t.rms.map((v) => round(v)), crossing: t.crossing };
+  });
+  const families: FamilyTrackReport[] = familyGuides.map((g, i) => {
+    const t = trackAgainstSpeed(trackGuide(power, layout, g, ctx, trackOpts), frameRpm, rpmStep);
+    const { m, n } = familyList[i];
+    let peakRms = 0;
+    let peakRpm = NaN;
+    t.rms.forEach((v, j) => {
+      if (!t.crossing[j] && v > peakRms) {
+        peakRms = v;
+        peakRpm = t.rpm[j];
+      }
+    });
+    return {
+      m,
+      n,
+      rpm: t.rpm.map((r) => round(r)),
+      hz: t.hz.map((h) => round(h)),
+      rms: t.rms.map((v) => round(v)),
+      crossing: t.crossing,
+      explained: pole.pattern ? allowedN(m, n, pole.pattern) : null,
+      peakRms: round(peakRms),
+      peakRpm: round(peakRpm),
+    };
+  });
+  const strongestFamilies = [...families]
+    .sort((a, b) => b.peakRms - a.peakRms)
+    .map(({ m, n, peakRms, peakRpm, explained }) => ({ m, n, peakRms, peakRpm, explained }));
+
+  return {
+    carrier: { t: times.map((t) => round(t)), hz: Array.from(carrier.hz, (h) => round(h)) },
+    carrierShifts: shifts.map((s) => ({ t: round(s.t), rpm: round(s.rpm), fromHz: round(s.fromHz), toHz: round(s.toHz) })),
+    carrierSpreadHz: spread === null ? null : round(spread),
+    polePairs: pole,
+    orders,
+    families,
+    strongestFamilies,
+  };
+}

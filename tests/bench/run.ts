@@ -1,5 +1,6 @@
 /** `npm run bench`: the performance figures the README quotes. Not a test: it measures and prints. */
 import { runDecodeBench } from './decode-bench';
+import { runInverterBench } from './inverter-bench';
 import { runMapBench } from './map-bench';
 
 const log = (line: string) => console.log(`  ${line}`);
@@ -15,4 +16,7 @@ const map = await runMapBench(log);
 if (map.scipyRfft60S !== undefined) {
   targets.push(`60 s map at least 2× faster than scipy's batched rfft: ${map.scipyRfft60S / map.fanlight60S >= 2 ? 'met' : 'NOT met'} (${(map.scipyRfft60S / map.fanlight60S).toFixed(2)}×)`);
 }
+console.log('inverter findings (batch CLI):');
+const inverter = runInverterBench(log);
+targets.push(`inverter command on 20 s under 3 s: ${inverter.bestS < 3 ? 'met' : 'NOT met'}`);
 for (const t of targets) log(t);

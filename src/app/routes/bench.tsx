@@ -49,7 +49,7 @@ export function BenchPage() {
   };
 
   return (
-    <div className="mx-auto max-w-7xl px-6 py-8">
+    <div className="mx-auto max-w-[104rem] px-6 py-8">
       <h1 className="mb-6 text-xl font-semibold">Bench</h1>
       <div className="grid items-start gap-6 lg:grid-cols-[20rem_minmax(0,1fr)]">
         <div className="flex flex-col gap-6">

@@ -3,6 +3,7 @@ import { Section } from '../../../components/ui/section';
 import { useChannelSetup } from '../hooks/use-channel-setup';
 import type { OpenRecording } from '../hooks/use-recording-reader';
 import { ChannelList } from './channel-list';
+import { MapPanel } from './map-panel';
 import { RecordingSummary } from './recording-summary';
 import { RegisterForm } from './register-form';
 
@@ -29,6 +30,7 @@ export function OpenRecordingView({
           </Button>
         </div>
       </Section>
+      <MapPanel recording={recording} setup={setup} />
       <Section title="Channels">
         <div className="flex flex-col gap-3">
           <ChannelList setup={setup} onChange={change} onBlur={flush} />

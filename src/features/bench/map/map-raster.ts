@@ -1,0 +1,160 @@
+/**
+ * The levels of one map, kept at the map's own resolution: one column per STFT frame (frames are
+ * grouped by their maximum beyond MAX_COLUMNS, which no screen shows one by one), one row per bin up
+ * to MAX_ROWS and the maximum over groups of neighbouring bins beyond, so a narrow tone never drops
+ * out. Levels are L = 10·lg(P·G(f)/ref²) in dB, P the mean square per bin, G the weighting's power
+ * gain (IEC 61672-1 via weightingGainsPower), ref the level reference (ISO 1683). No DOM here.
+ */
+import type { StftLayout } from '../../../../workers/dsp/stft';
+import { frameTimeS } from '../../../../workers/dsp/stft';
+import { weightingGainsPower, type Weighting } from '../../../../workers/dsp/weighting';
+
+export const MAX_ROWS = 2048;
+export const MAX_COLUMNS = 16384;
+
+export type RasterListener = (fromColumn: number, toColumn: number) => void;
+
+export class MapRaster {
+  readonly columns: number;
+  readonly rows: number;
+  /** Frames per column, bins per row */
+  readonly framesPerColumn: number;
+  readonly binsPerRow: number;
+  /** Column-major: levels[c·rows + r], −Infinity where nothing is known yet */
+  readonly levels: Float32Array;
+  /** Columns computed so far (from the left) */
+  columnsDone = 0;
+  /** The highest level above DC so far, dB */
+  maxDb = -Infinity;
+  private readonly factor: Float64Array;
+  private readonly listeners = new Set<RasterListener>();
+
+  constructor(
+    readonly layout: StftLayout,
+    weighting: Weighting,
+    readonly refRms: number,
+  ) {
+    this.framesPerColumn = Math.max(1, Math.ceil(layout.frames / MAX_COLUMNS));
+    this.binsPerRow = Math.max(1, Math.ceil(layout.bins / MAX_ROWS));
+    this.columns = Math.ceil(layout.frames / this.framesPerColumn);
+    this.rows = Math.ceil(layout.bins / this.binsPerRow);
+    this.levels = new Float32Array(this.columns * this.rows).fill(-Infinity);
+    const freqHz = new Float64Array(layout.bins);
+    for (let k = 0; k < layout.bins; k++) freqHz[k] = k * layout.binHz;
+    const gains = weightingGainsPower(weighting, freqHz);
+    this.factor = new Float64Array(layout.bins);
+    const invRef2 = 1 / (refRms * refRms);
+    for (let k = 0; k < layout.bins; k++) this.factor[k] = gains[k] * invRef2;
+  }
+
+  /** Takes frames [from, to) of mean-square powers ((to − from) × bins) and tells the listeners. */
+  add(from: number, to: number, power: Float32Array) {
+    const { bins } = this.layout;
+    const { rows, binsPerRow, framesPerColumn, factor, levels } = this;
+    let peak = 0;
+    for (let f = from; f < to; f++) {
+      const at = (f - from) * bins;
+      const col = Math.floor(f / framesPerColumn) * rows;
+      for (let r = 0; r < rows; r++) {
+        const k1 = Math.min(bins, (r + 1) * binsPerRow);
+        let m = 0;
+        for (let k = r * binsPerRow; k < k1; k++) {
+          const v = power[at + k] * factor[k];
+          if (v > m) m = v;
+          if (k > 0 && v > peak) peak = v;
+        }
+        const db = m > 0 ? 10 * Math.log10(m) : -Infinity;
+        if (db > levels[col + r]) levels[col + r] = db;
+      }
+    }
+    if (peak > 0) this.maxDb = Math.max(this.maxDb, 10 * Math.log10(peak));
+    const c0 = Math.floor(from / framesPerColumn);
+    const c1 = Math.ceil(to / framesPerColumn);
+    this.columnsDone = Math.max(this.columnsDone, to === this.layout.frames ? this.columns : Math.floor(to / framesPerColumn));
+    for (const l of this.listeners) l(c0, c1);
+  }
+
+  subscribe(listener: RasterListener): () => void {
+    this.listeners.add(listener);
+    return () => this.listeners.delete(listener);
+  }
+
+  /** Time of the left edge of column 0 and the right edge of the last column, s */
+  get timeSpanS(): [number, number] {
+    const { t0S, hopS } = this.layout;
+    return [t0S - hopS / 2, t0S + (this.columns * this.framesPerColumn - 0.5) * hopS];
+  }
+
+  /** Frequency of the bottom edge of row 0 and the top edge of the last row, Hz */
+  get frequencySpanHz(): [number, number] {
+    const { binHz } = this.layout;
+    return [-binHz / 2, (this.rows * this.binsPerRow - 0.5) * binHz];
+  }
+
+  /**
+   * What lies under a point given as fractions of the map's width and height (y up): the time of the
+   * frame, the frequency of the bin and the level of its cell, or null off the map or where nothing
+   * is computed yet.
+   */
+  probe(fx: number, fy: number): { timeS: number; frequencyHz: number; levelDb: number } | null {
+    if (!(fx >= 0 && fx < 1 && fy >= 0 && fy < 1)) return null;
+    const u = fx * this.columns;
+    const c = Math.min(this.columns - 1, Math.floor(u));
+    const [f0, f1] = this.frequencySpanHz;
+    const bin = Math.min(this.layout.bins - 1, Math.max(0, Math.round((f0 + fy * (f1 - f0)) / this.layout.binHz)));
+    const r = Math.floor(bin / this.binsPerRow);
+    const levelDb = this.levels[c * this.rows + r];
+    if (levelDb === -Infinity && c >= this.columnsDone) return null;
+    const frame = Math.min(this.layout.frames - 1, Math.floor(u * this.framesPerColumn));
+    return { timeS: frameTimeS(this.layout, frame), frequencyHz: bin * this.layout.binHz, levelDb };
+  }
+}
+
+/**
+ * Paints image columns [x0, x1) of an RGBA image of width × height from the raster's levels, each
+ * pixel the maximum of the cells it covers (so shrinking the map to the screen keeps every peak), mapped
+ * through a 256-entry lookup from floorDb (entry 0) to topDb (entry 255). Columns not yet computed stay
+ * transparent. The image's row 0 is the top (highest frequency).
+ */
+export function paintColumns(
+  raster: MapRaster,
+  image: Uint8ClampedArray,
+  width: number,
+  height: number,
+  lut: Uint8Array,
+  topDb: number,
+  rangeDb: number,
+  x0: number,
+  x1: number,
+) {
+  const { columns, rows, levels, columnsDone } = raster;
+  const floorDb = topDb - rangeDb;
+  const scale = 255 / rangeDb;
+  const column = new Float32Array(rows);
+  for (let x = x0; x < x1; x++) {
+    const c0 = Math.floor((x * columns) / width);
+    const c1 = Math.max(c0 + 1, Math.floor(((x + 1) * columns) / width));
+    if (c0 >= columnsDone) {
+      for (let y = 0; y < height; y++) image.fill(0, (y * width + x) * 4, (y * width + x) * 4 + 4);
+      continue;
+    }
+    column.fill(-Infinity);
+    for (let c = c0; c < c1; c++) {
+      const at = c * rows;
+      for (let r = 0; r < rows; r++) if (levels[at + r] > column[r]) column[r] = levels[at + r];
+    }
+    for (let y = 0; y < height; y++) {
+      // image row y (from the top) covers raster rows [r0, r1)
+      const r1 = rows - Math.floor((y * rows) / height);
+      const r0 = Math.min(r1 - 1, rows - Math.floor(((y + 1) * rows) / height));
+      let m = -Infinity;
+      for (let r = r0; r < r1; r++) if (column[r] > m) m = column[r];
+      const i = m === -Infinity ? 0 : Math.min(255, Math.max(0, Math.round((m - floorDb) * scale)));
+      const p = (y * width + x) * 4;
+      image[p] = lut[i * 3];
+      image[p + 1] = lut[i * 3 + 1];
+      image[p + 2] = lut[i * 3 + 2];
+      image[p + 3] = 255;
+    }
+  }
+}

@@ -5,12 +5,13 @@ import path from 'node:path';
 import type { Knex } from 'knex';
 import type { AppConfig } from './config';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
-import { loadUser } from './middleware/require-session';
+import { loadUser, requireSession } from './middleware/require-session';
 import { sessionMiddleware } from './middleware/session';
 import { csrfProtection } from './middleware/csrf';
 import { createMailer, type Mailer } from './mail/mailer';
 import { adminRoutes } from './routes/admin';
 import { authRoutes } from './routes/auth';
+import { demoRecordingFiles, demoRecordingListRoutes } from './routes/demo-recordings';
 import { healthRoutes } from './routes/health';
 import { invitationRoutes } from './routes/invitations';
 import { outboxRoutes } from './routes/outbox';
@@ -76,9 +77,12 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   api.use(projectRoutes(new ProjectService(db), invitations));
   api.use(recordingRoutes(new RecordingService(db)));
   api.use(invitationRoutes(invitations));
+  api.use(demoRecordingListRoutes(config.demoRecordingsDir));
   api.use(adminRoutes(new AdminService(db)));
   api.use(apiNotFound);
   app.use('/api', api);
+  // Demo recordings are files for signed-in users: the session is read here as on /api.
+  app.use('/demo-recordings', session.middleware, loadUser(auth), requireSession, demoRecordingFiles(config.demoRecordingsDir), errorHandler);
 
   if (existsSync(path.join(config.clientDir, 'index.html'))) {
     app.use(

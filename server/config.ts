@@ -44,6 +44,8 @@ export interface AppConfig {
   /** Value for Express's `trust proxy` (false, a hop count, or a list of addresses). */
   trustProxy: boolean | number | string;
   clientDir: string;
+  /** Where the demo's synthesised recordings are kept (written by the launchers). */
+  demoRecordingsDir: string;
 }
 
 function int(value: string | undefined, fallback: number, name: string): number {
@@ -103,5 +105,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     trustProxy: trustProxy(env.TRUST_PROXY),
     // The tests build into their own folder so that `npm test` never rewrites what a running `npm start` serves.
     clientDir: env.CLIENT_DIR || (mode === 'test' ? path.join(DATA_DIR, 'test-client') : path.join(PROJECT_ROOT, 'dist')),
+    demoRecordingsDir: env.DEMO_RECORDINGS_DIR || path.join(DATA_DIR, 'demo-recordings'),
   };
 }

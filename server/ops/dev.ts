@@ -7,12 +7,14 @@ import { startMailFakeIfWanted } from './mail-fake';
 import { serve } from '../index';
 import { printBanner } from './banner';
 import { prepareDatabase } from './database';
+import { prepareDemoRecordings } from './demo-files';
 import { onShutdown } from './shutdown';
 
 process.env.PUBLIC_ORIGIN ??= 'http://127.0.0.1:5173'; // links in mail open the dev server
 const config = loadConfig();
 const { mariadb } = await prepareDatabase('app', config.db);
 onShutdown(() => mariadb.stop());
+prepareDemoRecordings(config);
 const mailLine = await startMailFakeIfWanted(config);
 const app = await serve();
 onShutdown(() => app.stop());

@@ -7,6 +7,7 @@ import { serve } from '../index';
 import { printBanner } from './banner';
 import { buildClientIfStale } from './client-build';
 import { prepareDatabase } from './database';
+import { prepareDemoRecordings } from './demo-files';
 import { startMailFakeIfWanted } from './mail-fake';
 import { onShutdown } from './shutdown';
 
@@ -20,6 +21,7 @@ if (seed.usersCreated || seed.projectCreated) console.log('fanlight: seeded the 
 console.log('fanlight: building the client');
 console.log(`fanlight: client ${await buildClientIfStale(config.clientDir)}`);
 
+prepareDemoRecordings(config);
 const mailLine = await startMailFakeIfWanted(config);
 const app = await serve();
 onShutdown(() => app.stop());

@@ -12,6 +12,7 @@ import path from 'node:path';
 import { DATA_DIR, PROJECT_ROOT, loadConfig } from '../config';
 import { buildClientIfStale } from './client-build';
 import { prepareDatabase } from './database';
+import { prepareDemoRecordings } from './demo-files';
 import { startMailFakeIfWanted } from './mail-fake';
 import { onShutdown, shutdown } from './shutdown';
 
@@ -38,6 +39,7 @@ onShutdown(() => mariadb.stop());
 rmSync(config.smtp.outboxDir, { recursive: true, force: true }); // each run reads only its own mail
 await startMailFakeIfWanted(config);
 
+prepareDemoRecordings(config);
 console.log('fanlight test: type check');
 const typecheck = await run(bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']);
 if (typecheck !== 0) console.error('fanlight test: the type check failed (see above)');

@@ -188,6 +188,7 @@ const ROWS: Row[] = [
     expect: { ...signedIn(403), anonymous: 400 },
     call: async (f) => ({ path: `/api/invitations/${(await openInvitation(f.projectId)).token}/accept`, body: {} }),
   },
+  { method: 'GET', route: '/api/demo-recordings', expect: signedIn(200), call: () => ({ path: '/api/demo-recordings' }) },
   { method: 'GET', route: '/api/admin/users', expect: adminOnly(200), call: () => ({ path: '/api/admin/users' }) },
   {
     method: 'POST',

@@ -4,6 +4,7 @@
  * speed, and the strongest families. Shared by the Bench's workers and the batch CLI.
  */
 import { carrierShifts, detectCarrier, runSpreadHz } from './carrier';
+import { carrierTonality, type ToneFinding } from './carrier-tonality';
 import { allowedN, inferPolePairs, observeSidebandOffsets, type FamilyPattern } from './pole-pairs';
 import { frameTimeS, type StftLayout } from './stft';
 import { trackAgainstSpeed, trackGuide, type Guide } from './tracks';
@@ -23,6 +24,10 @@ export interface InverterAnalysisInput {
   families?: { m: number; n: number }[];
   rpmStep?: number;
   carrierMinHz?: number;
+  /** Where to judge the tonality of the carrier tones, s; default where the strongest family peaks */
+  tonalityAtS?: number;
+  /** The channel is sound pressure in Pa: give the tones' levels against the threshold of hearing */
+  soundPressure?: boolean;
 }
 
 export interface FamilyTrackReport {
@@ -47,6 +52,8 @@ export interface InverterReport {
   families: FamilyTrackReport[];
   /** Families ranked by their peak level */
   strongestFamilies: { m: number; n: number; peakRms: number; peakRpm: number; explained: boolean | null }[];
+  /** ECMA-418-1 tonality of the strongest carrier tones at one moment */
+  tonality: { atS: number; tones: ToneFinding[] };
 }
 
 const round = (x: number, digits = 6) => (Number.isFinite(x) ? Number(x.toPrecision(digits)) : x);
@@ -113,7 +120,27 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
     .sort((a, b) => b.peakRms - a.peakRms)
     .map(({ m, n, peakRms, peakRpm, explained }) => ({ m, n, peakRms, peakRpm, explained }));
 
+  let atS = input.tonalityAtS;
+  if (atS === undefined) {
+    const top = strongestFamilies[0];
+    let best = 0;
+    if (top && Number.isFinite(top.peakRpm)) for (let f = 1; f < frameRpm.length; f++) if (Math.abs(frameRpm[f] - top.peakRpm) < Math.abs(frameRpm[best] - top.peakRpm)) best = f;
+    atS = times[best] ?? 0;
+  }
+  const tonality = carrierTonality(power, layout, input.enbwBins, ctx, atS, familyList, input.soundPressure ?? false);
+
   return {
+    tonality: {
+      atS: round(tonality.atS),
+      tones: tonality.tones.map((t) => ({
+        ...t,
+        hz: round(t.hz),
+        tnrDb: round(t.tnrDb, 4),
+        prDb: round(t.prDb, 4),
+        levelDb: t.levelDb === null ? null : round(t.levelDb, 4),
+        aboveThresholdDb: t.aboveThresholdDb === null ? null : round(t.aboveThresholdDb, 4),
+      })),
+    },
     carrier: { t: times.map((t) => round(t)), hz: Array.from(carrier.hz, (h) => round(h)) },
     carrierShifts: shifts.map((s) => ({ t: round(s.t), rpm: round(s.rpm), fromHz: round(s.fromHz), toHz: round(s.toHz) })),
     carrierSpreadHz: spread === null ? null : round(spread),

@@ -1,7 +1,8 @@
 /**
  * `inverter FILE --channel I (--tacho J --ppr N | --speed-channel J [--speed-cal K]) [--pole-pairs P]
- * [--orders 8,48] [--families 1:2,1:-2,2:1] [--cal K] [--block N]`: carrier, shifts, spread, pole pairs
- * and the order and family tracks against speed.
+ * [--orders 8,48] [--families 1:2,1:-2,2:1] [--cal K] [--block N] [--at S] [--sound-pressure]`: carrier,
+ * shifts, spread, pole pairs, the order and family tracks against speed, and the carrier tones'
+ * tonality at S (ECMA-418-1; with --sound-pressure, in Pa, against the ISO 389-7 threshold).
  */
 import { analyseInverter, type InverterReport } from '../../../workers/dsp/inverter-analysis';
 import { rpmAtTimes } from '../../../workers/dsp/speed';
@@ -52,6 +53,8 @@ export async function inverterCommand(file: string, o: Options): Promise<Omit<In
       polePairs,
       orders: orders ?? [],
       families,
+      tonalityAtS: o.has('at') ? o.number('at') : undefined,
+      soundPressure: o.has('sound-pressure'),
     });
     return {
       ...report,

@@ -43,7 +43,7 @@ async function analyze(...args: string[]) {
 describe('analyze inverter', () => {
   it('prints carrier, shifts, spread, pole pairs, orders and families in the fixed shape', async () => {
     const r = await analyze('inverter', file, '--channel', '0', '--tacho', '1', '--ppr', '60', '--orders', '8,48', '--cal', '9.80665');
-    expect(Object.keys(r).sort()).toEqual(['carrier', 'carrierShifts', 'carrierSpreadHz', 'families', 'orders', 'polePairs', 'strongestFamilies']);
+    expect(Object.keys(r).sort()).toEqual(['carrier', 'carrierShifts', 'carrierSpreadHz', 'families', 'orders', 'polePairs', 'strongestFamilies', 'tonality']);
     expect(r.carrier.t.length).toBe(r.carrier.hz.length);
     expect(r.carrierShifts).toHaveLength(1);
     expect(Math.abs(r.carrierShifts[0].rpm - 5000) / 5000).toBeLessThan(0.02);

@@ -14,7 +14,11 @@ import { makeWindow } from '../../../workers/dsp/window';
 const FS = 51200;
 const db = (x: number) => 20 * Math.log10(x);
 
-async function analyse(x: Float32Array, rpm: (t: number) => number, extra: { polePairs?: number; orders?: number[] } = {}) {
+async function analyse(
+  x: Float32Array,
+  rpm: (t: number) => number,
+  extra: { polePairs?: number; orders?: number[]; soundPressure?: boolean; tonalityAtS?: number } = {},
+) {
   const layout = stftLayout(x.length, FS, { window: 'hann', blockSize: 8192, overlap: 0.75 });
   const win = makeWindow('hann', 8192);
   const power = new Float32Array(layout.frames * layout.bins);
@@ -122,6 +126,47 @@ describe('a run-up measured on the phase current (m + n odd)', async () => {
   it('uses given pole pairs as given', async () => {
     const given = await analyse(x, rpm, { polePairs: 3 });
     expect(given.report.polePairs).toMatchObject({ value: 3, source: 'given', pattern: 'm+n odd' });
+  });
+});
+
+describe('the tonality of the carrier tones on a microphone (ECMA-418-1, ISO 389-7)', async () => {
+  const T = 6;
+  const rpm = (t: number) => 3000 + 200 * t;
+  // sound pressure in Pa: the fc ± fe pair at 0.02 Pa peak (57.0 dB re 20 µPa each), white noise 2 mPa RMS
+  const x = synthesiseDrive({
+    fsHz: FS,
+    durationS: T,
+    rpm,
+    polePairs: 4,
+    carrierHz: () => 6000,
+    families: [
+      { m: 1, n: 1, amplitude: 0.02 },
+      { m: 1, n: -1, amplitude: 0.02 },
+    ],
+    noiseRms: 0.002,
+    seed: 13,
+  });
+  // one pair of sidebands alone cannot tell p = 4 (n = ±1) from p = 2 (n = ±2): the pole pairs are given
+  const { report } = await analyse(x, rpm, { polePairs: 4 });
+
+  it('judges the strongest tones at the given moment: level, prominence and audibility', async () => {
+    expect(report.tonality.tones.length).toBeGreaterThan(0);
+    const top = report.tonality.tones[0];
+    expect(Math.abs(top.n)).toBe(1);
+    expect(top.levelDb).toBeNull(); // not declared sound pressure
+    expect(top.prominent).toBe(true);
+    expect(top.tnrDb).toBeGreaterThan(8);
+  });
+
+  it('with the channel declared sound pressure, gives the level and its height above the threshold', async () => {
+    const { report: sp } = await analyse(x, rpm, { polePairs: 4, soundPressure: true, tonalityAtS: 3 });
+    const top = sp.tonality.tones[0];
+    expect(sp.tonality.atS).toBe(3);
+    // toDb(A²/2, 20 µPa) = 10·lg(0.0002 / 4e-10) = 56.99 dB (ISO 1683 reference)
+    expect(Math.abs(top.levelDb! - 56.99)).toBeLessThan(0.5);
+    // ISO 389-7 at 6 kHz: 4.3 dB
+    const thresholdNear = 4.3;
+    expect(Math.abs(top.aboveThresholdDb! - (top.levelDb! - thresholdNear))).toBeLessThan(1.5);
   });
 });
 

@@ -12,7 +12,7 @@ export interface PreparedDatabase {
 }
 
 export async function prepareDatabase(
-  instance: 'app' | 'test',
+  instance: 'app' | 'test' | 'bench',
   db: DbConfig,
   { recreate = false } = {},
 ): Promise<PreparedDatabase> {

@@ -1,4 +1,5 @@
 /** `npm run bench`: the performance figures the README quotes. Not a test: it measures and prints. */
+import { runBrowserBench } from './browser-bench';
 import { runDecodeBench } from './decode-bench';
 import { runInverterBench } from './inverter-bench';
 import { runMapBench } from './map-bench';
@@ -19,4 +20,10 @@ if (map.scipyRfft60S !== undefined) {
 console.log('inverter findings (batch CLI):');
 const inverter = runInverterBench(log);
 targets.push(`inverter command on 20 s under 3 s: ${inverter.bestS < 3 ? 'met' : 'NOT met'}`);
+console.log('the Bench (headless Chromium):');
+const bench = await runBrowserBench(log);
+if (bench) {
+  targets.push(`drop to painted map under 1.5 s: ${Math.min(...bench.dropToPaintedMs) < 1500 ? 'met' : 'NOT met'}`);
+  targets.push(`redraw under 16 ms: ${bench.redrawMs.p95 < 16 ? 'met' : 'NOT met'} (95th percentile)`);
+}
 for (const t of targets) log(t);

@@ -14,15 +14,23 @@ import { authRoutes } from './routes/auth';
 import { demoRecordingFiles, demoRecordingListRoutes } from './routes/demo-recordings';
 import { healthRoutes } from './routes/health';
 import { invitationRoutes } from './routes/invitations';
+import { markRoutes } from './routes/marks';
+import { notificationRoutes } from './routes/notifications';
 import { outboxRoutes } from './routes/outbox';
 import { projectRoutes } from './routes/projects';
 import { recordingRoutes } from './routes/recordings';
+import { shareLinkRoutes } from './routes/share-links';
+import { viewRoutes } from './routes/views';
 import { AdminService } from './services/admin-service';
 import { AuthService } from './services/auth-service';
 import { InvitationService } from './services/invitation-service';
+import { MarkService } from './services/mark-service';
+import { NotificationService } from './services/notification-service';
 import { PasswordResetService } from './services/password-reset-service';
 import { ProjectService } from './services/project-service';
 import { RecordingService } from './services/recording-service';
+import { ShareLinkService } from './services/share-link-service';
+import { ViewService } from './services/view-service';
 
 export const JSON_BODY_LIMIT = '200kb';
 
@@ -65,6 +73,8 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   const auth = new AuthService(db);
   const session = sessionMiddleware(db, config.sessionSecret);
   const invitations = new InvitationService(db, mailer, config.publicOrigin);
+  const notifications = new NotificationService(db, mailer, config.publicOrigin);
+  const views = new ViewService(db, notifications);
 
   const api = express.Router();
   api.use(express.json({ limit: JSON_BODY_LIMIT }));
@@ -76,6 +86,10 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   api.use(authRoutes(auth, new PasswordResetService(db, mailer, config.publicOrigin)));
   api.use(projectRoutes(new ProjectService(db), invitations));
   api.use(recordingRoutes(new RecordingService(db)));
+  api.use(viewRoutes(views));
+  api.use(markRoutes(new MarkService(db, notifications)));
+  api.use(shareLinkRoutes(new ShareLinkService(db, views, notifications, config.publicOrigin)));
+  api.use(notificationRoutes(notifications));
   api.use(invitationRoutes(invitations));
   api.use(demoRecordingListRoutes(config.demoRecordingsDir));
   api.use(adminRoutes(new AdminService(db)));

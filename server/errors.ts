@@ -12,6 +12,7 @@ export type ErrorCode =
   | 'NOT_FOUND'
   | 'CONFLICT'
   | 'PAYLOAD_TOO_LARGE'
+  | 'UNSUPPORTED_MEDIA_TYPE'
   | 'RATE_LIMITED'
   | 'SERVICE_UNAVAILABLE'
   | 'INTERNAL';
@@ -61,5 +62,36 @@ export class NotFoundError extends AppError {
 export class ConflictError extends AppError {
   constructor(message: string, fields?: FieldErrors) {
     super(409, 'CONFLICT', message, fields);
+  }
+}
+
+/**
+ * An edit made against an old version of a record (someone else saved in between). The body keeps the
+ * one error shape and adds the record as it is now beside it, `{ error: {...}, current: {...} }`, so the
+ * client can show the newer text and let the user decide.
+ */
+export class StaleVersionError extends ConflictError {
+  constructor(
+    message: string,
+    readonly current: unknown,
+  ) {
+    super(message, { version: 'Someone changed this in the meantime.' });
+    this.name = 'StaleVersionError';
+  }
+
+  override toBody() {
+    return { ...super.toBody(), current: this.current };
+  }
+}
+
+export class UnsupportedMediaTypeError extends AppError {
+  constructor(message: string) {
+    super(415, 'UNSUPPORTED_MEDIA_TYPE', message);
+  }
+}
+
+export class PayloadTooLargeError extends AppError {
+  constructor(message = 'The request body is too large.') {
+    super(413, 'PAYLOAD_TOO_LARGE', message);
   }
 }

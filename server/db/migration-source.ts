@@ -12,6 +12,12 @@ import * as createPasswordResets from '../../migrations/20261201000600_create_pa
 import * as createActivity from '../../migrations/20261201000700_create_activity';
 import * as createRecordings from '../../migrations/20261201000800_create_recordings';
 import * as createViews from '../../migrations/20261201000900_create_views';
+import * as addViewsArchivedAt from '../../migrations/20261201001000_add_views_archived_at';
+import * as createViewSnapshots from '../../migrations/20261201001100_create_view_snapshots';
+import * as createMarks from '../../migrations/20261201001200_create_marks';
+import * as createShareLinks from '../../migrations/20261201001300_create_share_links';
+import * as createComments from '../../migrations/20261201001400_create_comments';
+import * as createNotificationSettings from '../../migrations/20261201001500_create_notification_settings';
 
 interface NamedMigration {
   name: string;
@@ -28,6 +34,12 @@ export const migrations: NamedMigration[] = [
   { name: '20261201000700_create_activity', module: createActivity },
   { name: '20261201000800_create_recordings', module: createRecordings },
   { name: '20261201000900_create_views', module: createViews },
+  { name: '20261201001000_add_views_archived_at', module: addViewsArchivedAt },
+  { name: '20261201001100_create_view_snapshots', module: createViewSnapshots },
+  { name: '20261201001200_create_marks', module: createMarks },
+  { name: '20261201001300_create_share_links', module: createShareLinks },
+  { name: '20261201001400_create_comments', module: createComments },
+  { name: '20261201001500_create_notification_settings', module: createNotificationSettings },
 ];
 
 export const migrationSource: Knex.MigrationSource<NamedMigration> = {

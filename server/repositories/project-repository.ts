@@ -121,6 +121,20 @@ export class MemberRepository {
     }));
   }
 
+  /** The members whose accounts are not disabled: the ones mail may go to. */
+  async listReachable(projectId: number): Promise<ProjectMember[]> {
+    const active = new Set(
+      (
+        await this.db('project_members as m')
+          .join('users as u', 'u.id', 'm.user_id')
+          .where('m.project_id', projectId)
+          .whereNull('u.disabled_at')
+          .select('u.id')
+      ).map((r: { id: number }) => r.id),
+    );
+    return (await this.list(projectId)).filter((m) => active.has(m.userId));
+  }
+
   /** Adds a member, or changes the role of one already there. */
   async upsert(projectId: number, userId: number, role: ProjectRole, db: Knex = this.db): Promise<void> {
     await db('project_members').insert({ project_id: projectId, user_id: userId, role }).onConflict().merge(['role']);

@@ -8,6 +8,7 @@ import { hashToken, newToken } from '../../server/services/tokens';
 import { makeProject, makeUser, sessionFor, uniqueEmail, type Session } from '../support/actors';
 import { registeredRoutes } from '../support/routes';
 import { startTestApp } from '../support/test-app';
+import { SNAPSHOT_TYPE, insertLink, insertMark, insertSnapshot, insertView, sampleState, snapshotBytes } from './view-fixtures';
 
 const ACTORS = ['anonymous', 'guest', 'nonMember', 'viewer', 'engineer', 'lead', 'admin'] as const;
 type Actor = (typeof ACTORS)[number];
@@ -31,15 +32,28 @@ const adminOnly = (ok: number): Expect => ({ ...signedIn(403), admin: ok });
 interface Fixture {
   projectId: number;
   targetMemberId: number;
+  targetMemberEmail: string;
   adminTargetId: number;
+  engineerId: number;
+  /** A view by the engineer, with a snapshot, a mark by the engineer and a reply-enabled share link. */
+  viewId: number;
+  markId: number;
+  linkToken: string;
+}
+
+/** One call: a JSON body, or a file sent as multipart/form-data. */
+interface Call {
+  path: string;
+  body?: unknown;
+  file?: { field: string; bytes: Buffer; contentType: string };
 }
 
 interface Row {
-  method: 'GET' | 'POST' | 'PATCH' | 'DELETE';
+  method: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
   route: string;
   expect: Expect;
   /** Builds the concrete path and body for one call (fresh targets where a call would use them up). */
-  call(f: Fixture, actor: Actor): Promise<{ path: string; body?: unknown }> | { path: string; body?: unknown };
+  call(f: Fixture, actor: Actor): Promise<Call> | Call;
   /** Needs a session of its own (it changes or ends the session). */
   ownSession?: boolean;
 }
@@ -211,6 +225,115 @@ const ROWS: Row[] = [
     expect: adminOnly(200),
     call: (f) => ({ path: `/api/admin/users/${f.adminTargetId}`, body: { siteRole: 'staff' } }),
   },
+  // ---- views, snapshots, marks, threads, share links, notification settings
+  {
+    method: 'GET',
+    route: '/api/projects/:id/views',
+    expect: member('viewer', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/views?sort=title&pageSize=5` }),
+  },
+  {
+    method: 'POST',
+    route: '/api/projects/:id/views',
+    expect: member('engineer', 201),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/views`, body: { title: 'Matrix-made view', state: sampleState() } }),
+  },
+  { method: 'GET', route: '/api/views/:id', expect: member('viewer', 200), call: (f) => ({ path: `/api/views/${f.viewId}` }) },
+  {
+    method: 'PATCH',
+    route: '/api/views/:id',
+    // the author (the engineer) or a lead
+    expect: member('engineer', 200),
+    call: async (f) => ({ path: `/api/views/${await insertView(t.db, f.projectId, f.engineerId)}`, body: { version: 1, title: 'Renamed by the matrix' } }),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/views/:id',
+    expect: member('engineer', 204),
+    call: async (f) => ({ path: `/api/views/${await insertView(t.db, f.projectId, f.engineerId)}` }),
+  },
+  {
+    method: 'POST',
+    route: '/api/views/:id/archive',
+    expect: member('lead', 200),
+    call: async (f) => ({ path: `/api/views/${await insertView(t.db, f.projectId, f.engineerId)}/archive` }),
+  },
+  {
+    method: 'PUT',
+    route: '/api/views/:id/snapshot',
+    expect: member('engineer', 200),
+    call: (f) => ({ path: `/api/views/${f.viewId}/snapshot`, file: { field: 'snapshot', bytes: snapshotBytes(8, 4), contentType: SNAPSHOT_TYPE } }),
+  },
+  { method: 'GET', route: '/api/views/:id/snapshot', expect: member('viewer', 200), call: (f) => ({ path: `/api/views/${f.viewId}/snapshot` }) },
+  { method: 'GET', route: '/api/views/:id/marks', expect: member('viewer', 200), call: (f) => ({ path: `/api/views/${f.viewId}/marks` }) },
+  {
+    method: 'POST',
+    route: '/api/views/:id/marks',
+    expect: member('engineer', 201),
+    call: (f) => ({ path: `/api/views/${f.viewId}/marks`, body: { kind: 'point', geometry: { x: 4200, y: 9600 }, text: 'placed by the matrix' } }),
+  },
+  {
+    method: 'PATCH',
+    route: '/api/marks/:id',
+    // the author (the engineer) or a lead
+    expect: member('engineer', 200),
+    call: async (f) => ({ path: `/api/marks/${await insertMark(t.db, f.viewId, f.engineerId)}`, body: { version: 1, text: 'edited by the matrix' } }),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/marks/:id',
+    expect: member('engineer', 204),
+    call: async (f) => ({ path: `/api/marks/${await insertMark(t.db, f.viewId, f.engineerId)}` }),
+  },
+  { method: 'GET', route: '/api/marks/:id/comments', expect: member('viewer', 200), call: (f) => ({ path: `/api/marks/${f.markId}/comments` }) },
+  {
+    method: 'POST',
+    route: '/api/marks/:id/comments',
+    expect: member('viewer', 201),
+    call: (f) => ({ path: `/api/marks/${f.markId}/comments`, body: { body: 'a reply from the matrix' } }),
+  },
+  { method: 'GET', route: '/api/views/:id/comments', expect: member('viewer', 200), call: (f) => ({ path: `/api/views/${f.viewId}/comments` }) },
+  {
+    method: 'POST',
+    route: '/api/views/:id/comments',
+    expect: member('viewer', 201),
+    call: (f) => ({ path: `/api/views/${f.viewId}/comments`, body: { body: 'a view comment from the matrix' } }),
+  },
+  { method: 'GET', route: '/api/views/:id/links', expect: member('engineer', 200), call: (f) => ({ path: `/api/views/${f.viewId}/links` }) },
+  {
+    method: 'POST',
+    route: '/api/views/:id/links',
+    expect: member('engineer', 201),
+    call: (f) => ({ path: `/api/views/${f.viewId}/links`, body: { mayReply: false } }),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/links/:id',
+    expect: member('engineer', 204),
+    call: async (f) => ({ path: `/api/links/${(await insertLink(t.db, f.viewId, f.engineerId)).id}` }),
+  },
+  {
+    method: 'POST',
+    route: '/api/views/:id/share',
+    expect: member('engineer', 202),
+    call: (f) => ({ path: `/api/views/${f.viewId}/share`, body: { email: f.targetMemberEmail } }),
+  },
+  // the token is the credential: whoever holds the link may read the view, with or without an account
+  { method: 'GET', route: '/api/shared/:token', expect: all(200), call: (f) => ({ path: `/api/shared/${f.linkToken}` }) },
+  { method: 'GET', route: '/api/shared/:token/snapshot', expect: all(200), call: (f) => ({ path: `/api/shared/${f.linkToken}/snapshot` }) },
+  {
+    method: 'POST',
+    route: '/api/shared/:token/comments',
+    expect: all(201),
+    call: (f) => ({ path: `/api/shared/${f.linkToken}/comments`, body: { name: 'A supplier', body: 'seen, thanks' } }),
+  },
+  { method: 'GET', route: '/api/me/notifications', expect: signedIn(200), call: () => ({ path: '/api/me/notifications' }) },
+  {
+    method: 'PATCH',
+    route: '/api/me/notifications',
+    expect: signedIn(200),
+    call: () => ({ path: '/api/me/notifications', body: { shares: true } }),
+  },
 ];
 
 describe('route × role matrix', () => {
@@ -242,7 +365,13 @@ describe('route × role matrix', () => {
       { id: target.id, role: 'engineer' },
     ]);
     fixture.targetMemberId = target.id;
+    fixture.targetMemberEmail = target.email;
     fixture.adminTargetId = adminTarget.id;
+    fixture.engineerId = engineer.id;
+    fixture.viewId = await insertView(t.db, fixture.projectId, engineer.id, 'Matrix view');
+    await insertSnapshot(t.db, fixture.viewId);
+    fixture.markId = await insertMark(t.db, fixture.viewId, engineer.id);
+    fixture.linkToken = (await insertLink(t.db, fixture.viewId, engineer.id, { mayReply: true })).token;
     for (const actor of ACTORS) sessions[actor] = await sessionFor(t.app, actor === 'anonymous' ? null : emails[actor]);
   });
   afterAll(() => t.close());
@@ -256,8 +385,13 @@ describe('route × role matrix', () => {
     it.each(ACTORS)('as %s', async (actor) => {
       const session =
         row.ownSession ? await sessionFor(t.app, actor === 'anonymous' ? null : emails[actor]) : sessions[actor];
-      const { path, body } = await row.call(fixture, actor);
-      const res = await session.request(row.method, path, body);
+      const { path, body, file } = await row.call(fixture, actor);
+      const res = file
+        ? await session.agent
+            .put(path)
+            .set('X-CSRF-Token', session.csrf)
+            .attach(file.field, file.bytes, { filename: 'matrix.fls', contentType: file.contentType })
+        : await session.request(row.method, path, body);
       expect(res.status, `${row.method} ${path} as ${actor}: ${JSON.stringify(res.body)}`).toBe(row.expect[actor]);
       if (res.status >= 400) {
         // the one error shape, always

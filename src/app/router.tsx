@@ -11,7 +11,10 @@ import { OutboxPage } from './routes/outbox';
 import { ProjectPage } from './routes/project';
 import { ProjectsPage } from './routes/projects';
 import { ResetPasswordPage } from './routes/reset-password';
+import { SettingsPage } from './routes/settings';
+import { SharedViewPage } from './routes/shared-view';
 import { SignInPage } from './routes/sign-in';
+import { ViewPage } from './routes/view';
 
 const router = createBrowserRouter([
   { path: paths.signIn, element: <SignInPage /> },
@@ -20,6 +23,8 @@ const router = createBrowserRouter([
   // Outside the guard: an invitee may have no account yet.
   { path: paths.invitation(':token'), element: <InvitationPage /> },
   { path: paths.outbox, element: <OutboxPage /> },
+  // Outside the guard: a share link opens one view without an account.
+  { path: paths.shared(':token'), element: <SharedViewPage /> },
   {
     element: <RequireSignIn />,
     children: [
@@ -29,7 +34,9 @@ const router = createBrowserRouter([
           { index: true, element: <Navigate to={paths.projects} replace /> },
           { path: paths.projects, element: <ProjectsPage /> },
           { path: paths.project(':id'), element: <ProjectPage /> },
+          { path: paths.view(':id'), element: <ViewPage /> },
           { path: paths.bench, element: <BenchPage /> },
+          { path: paths.settings, element: <SettingsPage /> },
           { path: paths.adminUsers, element: <AdminUsersPage /> },
           { path: '*', element: <NotFoundPage /> },
         ],

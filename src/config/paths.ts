@@ -6,6 +6,10 @@ export const paths = {
   projects: '/projects',
   project: (id: number | string) => `/projects/${id}`,
   bench: '/bench',
+  /** A saved view; `mark` selects one of its marks. */
+  view: (id: number | string, mark?: number) => (mark === undefined ? `/views/${id}` : `/views/${id}?mark=${mark}`),
+  shared: (token: string) => `/shared/${token}`,
+  settings: '/settings',
   adminUsers: '/admin/users',
   outbox: '/outbox',
 } as const;

@@ -1,13 +1,14 @@
 import { useCallback, useEffect, useRef } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { Notice } from '../../components/ui/notice';
-import { Section } from '../../components/ui/section';
+import { BenchPanel } from '../../features/bench/components/bench-panel';
 import { DropZone } from '../../features/bench/components/drop-zone';
 import { LibraryPanel } from '../../features/bench/components/library-panel';
-import { OpenRecordingView } from '../../features/bench/components/open-recording-view';
 import { SampleRateForm } from '../../features/bench/components/sample-rate-form';
+import { Workbench } from '../../features/bench/components/workbench';
 import { useRecordingReader } from '../../features/bench/hooks/use-recording-reader';
 import type { LibraryEntry } from '../../features/library/library-store';
+import { warmPool } from '../../lib/workers/analysis-pool';
 
 /** `?open=<fingerprint>` opens a library entry; `?project=<id>` preselects the project to register with. */
 export function BenchPage() {
@@ -34,6 +35,8 @@ export function BenchPage() {
     [setParams],
   );
 
+  useEffect(() => warmPool(), []);
+
   const reader = useRecordingReader((entry: LibraryEntry) => setOpenParam(entry.fingerprint));
   const { open, reading, prompt, notice, openFromLibrary } = reader;
 
@@ -48,56 +51,53 @@ export function BenchPage() {
     setOpenParam(null);
   };
 
-  return (
-    <div className="mx-auto max-w-[104rem] px-6 py-8">
-      <h1 className="mb-6 text-xl font-semibold">Bench</h1>
-      <div className="grid items-start gap-6 lg:grid-cols-[20rem_minmax(0,1fr)]">
-        <div className="flex flex-col gap-6">
-          <Section title="Add a recording">
-            <div className="flex flex-col gap-3">
-              <DropZone
-                reading={reading}
-                onFile={(file) => void reader.read(file, file.name)}
-                onRejected={(message) => reader.showNotice({ tone: 'error', message })}
-                onCancel={reader.cancel}
-              />
-              {prompt && !reading && (
-                <SampleRateForm prompt={prompt} onSubmit={reader.readWithRate} onCancel={reader.dismissPrompt} />
-              )}
-              {notice && (
-                <Notice tone={notice.tone}>
-                  {notice.fileName && <span className="break-all font-medium">{notice.fileName}: </span>}
-                  {notice.message}
-                </Notice>
-              )}
-            </div>
-          </Section>
-          <LibraryPanel
-            openFingerprint={open?.entry.fingerprint ?? null}
-            busy={reading !== null}
-            onOpen={(fingerprint) => void openFromLibrary(fingerprint)}
-            onRemoved={(fingerprint) => fingerprint === open?.entry.fingerprint && close()}
+  const intake = (
+    <>
+      <BenchPanel title="Add a recording">
+        <div className="flex flex-col gap-3">
+          <DropZone
+            reading={reading}
+            compact={open !== null}
+            onFile={(file) => void reader.read(file, file.name)}
+            onRejected={(message) => reader.showNotice({ tone: 'error', message })}
+            onCancel={reader.cancel}
           />
-        </div>
-        <div>
-          {open ? (
-            <OpenRecordingView
-              key={open.entry.fingerprint}
-              recording={open}
-              preferredProjectId={preferredProjectId}
-              onClose={close}
-            />
-          ) : (
-            <p
-              className="rounded-lg border border-dashed border-ink-700 px-6 py-16 text-center text-sm text-mist-500"
-              data-testid="bench-empty"
-            >
-              Drop a recording, or open one from the library, to see its channels here.
-            </p>
+          {prompt && !reading && <SampleRateForm prompt={prompt} onSubmit={reader.readWithRate} onCancel={reader.dismissPrompt} />}
+          {notice && (
+            <Notice tone={notice.tone}>
+              {notice.fileName && <span className="break-all font-medium">{notice.fileName}: </span>}
+              {notice.message}
+            </Notice>
           )}
         </div>
-      </div>
-      <footer className="mt-10 border-t border-ink-800 pt-4 text-xs text-mist-500">
+      </BenchPanel>
+      <LibraryPanel
+        openFingerprint={open?.entry.fingerprint ?? null}
+        busy={reading !== null}
+        onOpen={(fingerprint) => void openFromLibrary(fingerprint)}
+        onOpenFile={(file, name) => void reader.read(file, name)}
+        onRemoved={(fingerprint) => fingerprint === open?.entry.fingerprint && close()}
+      />
+    </>
+  );
+
+  return (
+    <div className="mx-auto max-w-[150rem] px-4 py-4">
+      <h1 className="sr-only">Bench</h1>
+      {open ? (
+        <Workbench key={open.entry.fingerprint} recording={open} intake={intake} preferredProjectId={preferredProjectId} onClose={close} />
+      ) : (
+        <div className="grid items-start gap-4 lg:grid-cols-[17.5rem_minmax(0,1fr)]">
+          <div className="flex flex-col gap-4">{intake}</div>
+          <p
+            className="rounded-lg border border-dashed border-ink-700 px-6 py-24 text-center text-sm text-mist-500"
+            data-testid="bench-empty"
+          >
+            Drop a recording, or open one from the library, to see its channels, its map and what the inverter is doing.
+          </p>
+        </div>
+      )}
+      <footer className="mt-8 border-t border-ink-800 pt-3 text-xs text-mist-500">
         Recordings stay in this browser; registering sends only their description, never the samples.
       </footer>
     </div>

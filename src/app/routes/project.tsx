@@ -1,6 +1,5 @@
 import { Link, useParams } from 'react-router-dom';
 import { Notice } from '../../components/ui/notice';
-import { Section } from '../../components/ui/section';
 import { linkClass } from '../../components/ui/styles';
 import { paths } from '../../config/paths';
 import { useProject } from '../../features/projects/api/projects';
@@ -8,6 +7,8 @@ import { ActivityList } from '../../features/projects/components/activity-list';
 import { MembersSection } from '../../features/projects/components/members-section';
 import { ProjectHeader } from '../../features/projects/components/project-header';
 import { RecordingsSection } from '../../features/projects/components/recordings-section';
+import { useViewCountsByRecording } from '../../features/views/api/views';
+import { ViewsSection } from '../../features/views/components/views-section';
 import { ApiError } from '../../lib/api-client';
 
 export function ProjectPage() {
@@ -19,6 +20,7 @@ export function ProjectPage() {
 
 function Project({ id }: { id: number }) {
   const { data: project, isPending, error } = useProject(id);
+  const { data: viewCounts } = useViewCountsByRecording(id);
   if (isPending) return <p className="px-6 py-8 text-sm text-mist-500">Loading the project…</p>;
   // The server answers 404 for projects one is not a member of, as for those that do not exist.
   if (error instanceof ApiError && error.status === 404) return <ProjectNotFound />;
@@ -32,11 +34,9 @@ function Project({ id }: { id: number }) {
   return (
     <div className="mx-auto max-w-6xl px-6 py-8">
       <ProjectHeader project={project} />
-      <div className="grid gap-6 lg:grid-cols-2">
-        <RecordingsSection projectId={id} />
-        <Section title="Views">
-          <p className="text-sm text-mist-500">Shared views arrive with the Bench, too.</p>
-        </Section>
+      <div className="flex flex-col gap-6">
+        <ViewsSection projectId={id} isLead={project.role === 'lead'} />
+        <RecordingsSection projectId={id} viewCounts={viewCounts} />
       </div>
       <div className="mt-6 grid items-start gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <MembersSection projectId={id} isLead={project.role === 'lead'} />

@@ -28,6 +28,9 @@ export function AppShell() {
           )}
         </nav>
         <div className="ml-auto flex items-center gap-3 text-sm">
+          <Link to={paths.settings} className="rounded-md px-2 py-1 text-mist-300 hover:bg-ink-800 hover:text-mist-100">
+            Settings
+          </Link>
           {me && (
             <span className="text-mist-300" data-testid="signed-in-as">
               {me.name} <span className="text-mist-500">· {me.siteRole}</span>

@@ -251,6 +251,22 @@ function end(job: Job, error: Error | null) {
   else job.resolve();
 }
 
+/**
+ * Starts the workers, and their FFT for the usual settings, before the first map is asked for (the
+ * Bench calls it when it opens), so a dropped file's map does not wait for them.
+ */
+export function warmPool(settings: StftSettings = { blockSize: 8192, overlap: 0.75, window: 'hann' }) {
+  for (const slot of pool()) {
+    if (slot.dead) continue;
+    slot.remote.warm(settings).then(
+      () => {
+        slot.answered = true;
+      },
+      () => undefined,
+    );
+  }
+}
+
 /** Default chunking: about 64 frames, and at least 256 k samples of blocks per chunk for small blocks. */
 const defaultFramesPerChunk = (blockSize: number) => Math.max(64, Math.floor(262144 / blockSize));
 

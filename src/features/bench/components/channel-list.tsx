@@ -7,10 +7,10 @@ import {
   type ChannelSetup,
   type Quantity,
 } from '../../../../workers/io/channel-setup';
-import { compactSelectClass, tableHeadRowClass } from '../../../components/ui/styles';
+import { compactSelectClass } from '../../../components/ui/styles';
 
 const compactInputClass =
-  'rounded-md border bg-ink-900 px-2 py-1 text-sm text-mist-100 placeholder:text-mist-500 focus:border-accent';
+  'rounded-md border bg-ink-950 px-2 py-1 text-sm text-mist-100 placeholder:text-mist-500 focus:border-accent';
 
 const quantityLabel: Record<Quantity, string> = {
   acceleration: 'Acceleration',
@@ -37,68 +37,61 @@ export function ChannelList({ setup, onChange, onBlur }: ChannelListProps) {
     onChange(setup.map((c, j) => (j === i ? { ...c, ...patch } : c)), now);
 
   return (
-    <div className="overflow-x-auto">
-      <table className="w-full border-collapse text-sm" data-testid="channel-list">
-        <thead>
-          <tr className={tableHeadRowClass}>
-            <th className="py-2 pr-3 font-medium">#</th>
-            <th className="py-2 pr-3 font-medium">Name</th>
-            <th className="py-2 pr-3 font-medium">Quantity</th>
-            <th className="py-2 pr-3 font-medium">Unit</th>
-            <th className="py-2 font-medium">Calibration</th>
-          </tr>
-        </thead>
-        <tbody>
-          {setup.map((c, i) => {
-            const n = c.index + 1;
-            const nameMissing = c.name.trim() === '';
-            const problem = calibrationProblem(c.calibration);
-            return (
-              <tr key={c.index} className="border-b border-ink-800 align-top" data-channel-index={c.index}>
-                <td className="py-2 pr-3 font-mono text-mist-500">{n}</td>
-                <td className="py-2 pr-3">
+    <table className="w-full border-collapse text-sm" data-testid="channel-list">
+      <thead className="sr-only">
+        <tr>
+          <th>#</th>
+          <th>Name, quantity, unit and calibration</th>
+        </tr>
+      </thead>
+      <tbody>
+        {setup.map((c, i) => {
+          const n = c.index + 1;
+          const nameMissing = c.name.trim() === '';
+          const problem = calibrationProblem(c.calibration);
+          return (
+            <tr key={c.index} className="border-b border-ink-800 align-top last:border-b-0" data-channel-index={c.index}>
+              <td className="w-6 py-2 pr-2 pt-3 font-mono text-xs text-mist-500">{n}</td>
+              <td className="py-2">
+                <div className="flex flex-col gap-1.5">
                   <input
                     aria-label={`Name of channel ${n}`}
                     aria-invalid={nameMissing || undefined}
-                    className={`${compactInputClass} w-40 ${nameMissing ? 'border-danger' : 'border-ink-700'}`}
+                    className={`${compactInputClass} w-full ${nameMissing ? 'border-danger' : 'border-ink-700'}`}
                     value={c.name}
                     maxLength={120}
                     onChange={(e) => edit(i, { name: e.target.value })}
                     onBlur={onBlur}
                   />
-                  {nameMissing && <p className="mt-1 text-xs text-danger">Name the channel.</p>}
-                </td>
-                <td className="py-2 pr-3">
-                  <select
-                    aria-label={`Quantity of channel ${n}`}
-                    className={compactSelectClass}
-                    value={c.quantity}
-                    onChange={(e) => {
-                      const quantity = e.target.value as Quantity;
-                      // Follow the quantity's usual unit unless the engineer typed one of their own.
-                      const keepUnit = c.unit !== '' && c.unit !== defaultUnit[c.quantity];
-                      edit(i, { quantity, unit: keepUnit ? c.unit : defaultUnit[quantity] }, true);
-                    }}
-                  >
-                    {quantities.map((q) => (
-                      <option key={q} value={q}>
-                        {quantityLabel[q]}
-                      </option>
-                    ))}
-                  </select>
-                </td>
-                <td className="py-2 pr-3">
-                  <input
-                    aria-label={`Unit of channel ${n}`}
-                    className={`${compactInputClass} w-24 border-ink-700 font-mono`}
-                    value={c.unit}
-                    maxLength={40}
-                    onChange={(e) => edit(i, { unit: e.target.value })}
-                    onBlur={onBlur}
-                  />
-                </td>
-                <td className="py-2">
-                  <div className="flex flex-wrap items-center gap-2">
+                  {nameMissing && <p className="text-xs text-danger">Name the channel.</p>}
+                  <div className="flex gap-1.5">
+                    <select
+                      aria-label={`Quantity of channel ${n}`}
+                      className={`${compactSelectClass} min-w-0 flex-1`}
+                      value={c.quantity}
+                      onChange={(e) => {
+                        const quantity = e.target.value as Quantity;
+                        // Follow the quantity's usual unit unless the engineer typed one of their own.
+                        const keepUnit = c.unit !== '' && c.unit !== defaultUnit[c.quantity];
+                        edit(i, { quantity, unit: keepUnit ? c.unit : defaultUnit[quantity] }, true);
+                      }}
+                    >
+                      {quantities.map((q) => (
+                        <option key={q} value={q}>
+                          {quantityLabel[q]}
+                        </option>
+                      ))}
+                    </select>
+                    <input
+                      aria-label={`Unit of channel ${n}`}
+                      className={`${compactInputClass} w-20 border-ink-700 font-mono`}
+                      value={c.unit}
+                      maxLength={40}
+                      onChange={(e) => edit(i, { unit: e.target.value })}
+                      onBlur={onBlur}
+                    />
+                  </div>
+                  <div className="flex flex-wrap items-center gap-1.5">
                     <select
                       aria-label={`Calibration of channel ${n}`}
                       className={compactSelectClass}
@@ -133,17 +126,17 @@ export function ChannelList({ setup, onChange, onBlur }: ChannelListProps) {
                     )}
                   </div>
                   {problem && (
-                    <p className="mt-1 text-xs text-danger" data-testid="calibration-problem">
+                    <p className="text-xs text-danger" data-testid="calibration-problem">
                       {problem}
                     </p>
                   )}
-                </td>
-              </tr>
-            );
-          })}
-        </tbody>
-      </table>
-    </div>
+                </div>
+              </td>
+            </tr>
+          );
+        })}
+      </tbody>
+    </table>
   );
 }
 
@@ -210,7 +203,7 @@ function NumberInput({
       inputMode="decimal"
       aria-label={label}
       aria-invalid={invalid || undefined}
-      className={`${compactInputClass} w-24 font-mono ${invalid ? 'border-danger' : 'border-ink-700'}`}
+      className={`${compactInputClass} w-20 font-mono ${invalid ? 'border-danger' : 'border-ink-700'}`}
       value={text}
       onChange={(e) => {
         setText(e.target.value);

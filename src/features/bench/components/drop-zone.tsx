@@ -26,9 +26,11 @@ interface DropZoneProps {
   onFile: (file: File) => void;
   onRejected: (message: string) => void;
   onCancel: () => void;
+  /** Smaller, once a recording is open */
+  compact?: boolean;
 }
 
-export function DropZone({ reading, onFile, onRejected, onCancel }: DropZoneProps) {
+export function DropZone({ reading, onFile, onRejected, onCancel, compact = false }: DropZoneProps) {
   const { getRootProps, getInputProps, isDragActive } = useDropzone({
     accept,
     multiple: false,
@@ -47,7 +49,7 @@ export function DropZone({ reading, onFile, onRejected, onCancel }: DropZoneProp
   if (reading) {
     const percent = Math.round(Math.min(1, Math.max(0, reading.fraction)) * 100);
     return (
-      <div className="flex flex-col gap-3 rounded-lg border border-ink-700 bg-ink-850 p-5" data-testid="drop-zone">
+      <div className="flex flex-col gap-3 rounded-lg border border-ink-700 bg-ink-850 p-4" data-testid="drop-zone">
         <p className="break-all text-sm text-mist-300">
           Reading <span className="text-mist-100">{reading.fileName}</span>…
         </p>
@@ -75,7 +77,7 @@ export function DropZone({ reading, onFile, onRejected, onCancel }: DropZoneProp
     <div
       {...getRootProps({
         'data-testid': 'drop-zone',
-        className: `flex cursor-pointer flex-col items-center gap-2 rounded-lg border-2 border-dashed px-5 py-8 text-center transition-colors ${
+        className: `flex cursor-pointer flex-col items-center gap-1.5 rounded-lg border-2 border-dashed px-4 text-center transition-colors ${compact ? 'py-3' : 'py-8'} ${
           isDragActive ? 'border-accent bg-ink-850' : 'border-ink-700 bg-ink-900 hover:border-ink-600'
         }`,
       })}

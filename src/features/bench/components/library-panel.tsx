@@ -1,18 +1,66 @@
 import { useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
-import { Section } from '../../../components/ui/section';
 import { formatDateTime, formatMegabytes, formatSeconds } from '../../../lib/format';
 import { useLibrary, useRemoveFromLibrary, useStorageEstimate } from '../../library/api/library';
+import { fetchDemoRecording, useDemoRecordings } from '../api/demo-recordings';
+import { BenchPanel } from './bench-panel';
 
 interface LibraryPanelProps {
   openFingerprint: string | null;
   busy: boolean;
   onOpen: (fingerprint: string) => void;
+  /** A file fetched from elsewhere (a demo recording), read like a drop */
+  onOpenFile: (file: Blob, name: string) => void;
   onRemoved: (fingerprint: string) => void;
 }
 
-export function LibraryPanel({ openFingerprint, busy, onOpen, onRemoved }: LibraryPanelProps) {
+function DemoRecordings({ busy, onOpenFile }: { busy: boolean; onOpenFile: (file: Blob, name: string) => void }) {
+  const { data } = useDemoRecordings();
+  const [fetching, setFetching] = useState<string | null>(null);
+  const [problem, setProblem] = useState<string | null>(null);
+  if (!data || data.length === 0) return null;
+  const open = async (file: string) => {
+    setProblem(null);
+    setFetching(file);
+    try {
+      onOpenFile(await fetchDemoRecording(file), file);
+    } catch (e) {
+      setProblem(e instanceof Error ? e.message : String(e));
+    } finally {
+      setFetching(null);
+    }
+  };
+  return (
+    <div className="flex flex-col gap-2 border-t border-ink-800 pt-3" data-testid="demo-recordings">
+      <h3 className="text-[11px] font-medium uppercase tracking-wider text-mist-500">Demo recordings</h3>
+      {problem && <Notice tone="error">{problem}</Notice>}
+      <ul className="flex flex-col divide-y divide-ink-800 text-sm">
+        {data.map((d) => (
+          <li key={d.file} className="flex items-start gap-2 py-2" data-testid="demo-recording">
+            <div className="min-w-0 flex-1">
+              <p className="font-medium text-mist-100">{d.title}</p>
+              <p className="text-xs text-mist-500">{d.description}</p>
+              <p className="font-mono text-[11px] text-mist-500">{formatMegabytes(d.sizeBytes)}</p>
+            </div>
+            <Button
+              type="button"
+              variant="quiet"
+              className="px-2.5 py-1"
+              aria-label={`Open the demo recording ${d.title}`}
+              disabled={busy || fetching !== null}
+              onClick={() => void open(d.file)}
+            >
+              {fetching === d.file ? 'Fetching…' : 'Open'}
+            </Button>
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+export function LibraryPanel({ openFingerprint, busy, onOpen, onOpenFile, onRemoved }: LibraryPanelProps) {
   const { data: entries, isPending, error } = useLibrary();
   const { data: storage } = useStorageEstimate();
   const remove = useRemoveFromLibrary();
@@ -27,7 +75,7 @@ export function LibraryPanel({ openFingerprint, busy, onOpen, onRemoved }: Libra
   };
 
   return (
-    <Section title="Library">
+    <BenchPanel title="Library">
       <div className="flex flex-col gap-3">
         {isPending && <p className="text-sm text-mist-500">Loading the library…</p>}
         {error && <Notice tone="error">The library in this browser cannot be read: {error.message}</Notice>}
@@ -93,7 +141,8 @@ export function LibraryPanel({ openFingerprint, busy, onOpen, onRemoved }: Libra
             'This browser does not say how much storage it allows.'
           )}
         </p>
+        <DemoRecordings busy={busy} onOpenFile={onOpenFile} />
       </div>
-    </Section>
+    </BenchPanel>
   );
 }

@@ -24,8 +24,8 @@ export function MapScale({
   const floorDb = topDb - rangeDb;
   const values = ticks(floorDb, topDb, 7);
   return (
-    <div className="flex w-28 shrink-0 flex-col pl-3" data-testid="map-scale">
-      <p className="flex h-8 items-end pb-1.5 text-xs leading-tight text-mist-300">
+    <div className="flex w-24 shrink-0 flex-col pl-3" data-testid="map-scale">
+      <p className="flex h-7 items-end pb-1 text-[11px] leading-tight text-mist-300">
         <span>
           <span className="font-mono text-mist-100">{weighting === 'Z' ? 'dB' : `dB(${weighting})`}</span>{' '}
           <span className="text-mist-500">re</span> <span className="font-mono">{reference}</span>

@@ -21,16 +21,34 @@ export type MapStatus =
   | { kind: 'cancelled'; fraction: number }
   | { kind: 'error'; message: string };
 
+const PROGRESS_EVERY_MS = 150;
+
+/** Beyond this the mean squares are not kept (only the painted levels): tracks and findings need them. */
+const MAX_POWER_BYTES = 768 * 1024 * 1024;
+
+/**
+ * The mean squares of one map, frames × bins, calibrated and unweighted, filled as chunks arrive.
+ * One object per computation, so a consumer can tell a new map from the old.
+ */
+export interface MapPower {
+  layout: StftLayout;
+  power: Float32Array;
+  /** Frames filled so far, from the left */
+  frames: number;
+}
+
 /**
  * Computes the map of a request in the analysis pool whenever the request changes (cancelling the one
  * running). The levels land in a MapRaster, which tells its subscribers (the canvas) about each chunk;
- * React hears only the status, the progress and the highest level (rounded up to 5 dB).
+ * the mean squares are kept for tracks, slices and findings. React hears only the status, the progress
+ * and the highest level (rounded up to 5 dB).
  */
 export function useMapComputation(req: MapRequest) {
   const [raster, setRaster] = useState<MapRaster | null>(null);
   const [status, setStatus] = useState<MapStatus>({ kind: 'idle' });
   const [peakTopDb, setPeakTopDb] = useState<number | null>(null);
   const [layout, setLayout] = useState<StftLayout | null>(null);
+  const [power, setPower] = useState<MapPower | null>(null);
   const [run, setRun] = useState(0);
   const job = useRef<MapJob | null>(null);
   const fraction = useRef(0);
@@ -42,20 +60,30 @@ export function useMapComputation(req: MapRequest) {
     if (!samples) return;
     let current: MapJob;
     let r: MapRaster | null = null;
+    let store: MapPower | null = null;
     fraction.current = 0;
+    let shownAt = -Infinity;
     try {
       current = startMap(
         samples,
         fsHz,
         { blockSize, overlap, window },
-        (from, to, power) => {
+        (from, to, chunk) => {
+          if (store) {
+            store.power.set(chunk, from * store.layout.bins);
+            store.frames = to;
+          }
           if (!r) return;
-          r.add(from, to, power);
+          r.add(from, to, chunk);
           const top = Number.isFinite(r.maxDb) ? Math.ceil(r.maxDb / 5) * 5 : null;
           setPeakTopDb((t) => (t === top ? t : top));
         },
         (f) => {
           fraction.current = f;
+          // The page re-renders for the bar a few times a second, not for every chunk.
+          const now = performance.now();
+          if (now - shownAt < PROGRESS_EVERY_MS && f < 1) return;
+          shownAt = now;
           setStatus((s) => (s.kind === 'computing' ? { kind: 'computing', fraction: f } : s));
         },
         { scale },
@@ -63,13 +91,17 @@ export function useMapComputation(req: MapRequest) {
     } catch (e) {
       setRaster(null);
       setLayout(null);
+      setPower(null);
       setStatus({ kind: 'error', message: e instanceof Error ? e.message : String(e) });
       return;
     }
     job.current = current;
-    r = current.layout.frames > 0 ? new MapRaster(current.layout, weighting, refRms) : null;
+    const l = current.layout;
+    r = l.frames > 0 ? new MapRaster(l, weighting, refRms) : null;
+    store = l.frames > 0 && l.frames * l.bins * 4 <= MAX_POWER_BYTES ? { layout: l, power: new Float32Array(l.frames * l.bins), frames: 0 } : null;
     setRaster(r);
-    setLayout(current.layout);
+    setLayout(l);
+    setPower(store);
     setPeakTopDb(null);
     setStatus({ kind: 'computing', fraction: 0 });
     current.done.then(
@@ -89,5 +121,5 @@ export function useMapComputation(req: MapRequest) {
   const cancel = useCallback(() => job.current?.cancel(), []);
   const restart = useCallback(() => setRun((n) => n + 1), []);
 
-  return { raster, layout, status, peakTopDb, cancel, restart };
+  return { raster, layout, status, peakTopDb, power, cancel, restart };
 }

@@ -1,13 +1,104 @@
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from '@tanstack/react-table';
+import { useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
+import type { RegisteredRecording } from '../../../../server/schemas/recordings';
 import { Notice } from '../../../components/ui/notice';
 import { Section } from '../../../components/ui/section';
 import { linkClass, tableHeadRowClass } from '../../../components/ui/styles';
 import { paths } from '../../../config/paths';
 import { formatDateTime, formatHz, formatSeconds } from '../../../lib/format';
+import { SortHeader } from '../../views/components/sort-header';
 import { useProjectRecordings } from '../api/recordings';
 
-export function RecordingsSection({ projectId }: { projectId: number }) {
+const col = createColumnHelper<RegisteredRecording>();
+type Numeric = { numeric?: boolean };
+
+/**
+ * The recordings registered with the project, sorted in the browser (the list is short and whole).
+ * `viewCounts`: saved views per recording id, archived ones included; the column waits until it is known.
+ */
+export function RecordingsSection({ projectId, viewCounts }: { projectId: number; viewCounts?: Map<number, number> }) {
   const { data: recordings, isPending, error } = useProjectRecordings(projectId);
+  const [sorting, setSorting] = useState<SortingState>([]);
+
+  const columns = useMemo(
+    () => [
+      col.accessor('name', {
+        id: 'name',
+        header: 'Name',
+        sortDescFirst: false,
+        sortingFn: (a, b) => a.original.name.localeCompare(b.original.name, 'en', { sensitivity: 'base', numeric: true }),
+        cell: (c) => <span className="break-all text-mist-100">{c.getValue()}</span>,
+      }),
+      col.accessor('format', {
+        header: 'Format',
+        enableSorting: false,
+        cell: (c) => <span className="font-mono text-mist-300">{c.getValue().toUpperCase()}</span>,
+      }),
+      col.accessor('sampleRateHz', {
+        header: 'Sample rate',
+        enableSorting: false,
+        meta: { numeric: true } satisfies Numeric,
+        cell: (c) => <span className="whitespace-nowrap font-mono">{formatHz(c.getValue())}</span>,
+      }),
+      col.accessor('durationS', {
+        header: 'Duration',
+        enableSorting: false,
+        meta: { numeric: true } satisfies Numeric,
+        cell: (c) => <span className="whitespace-nowrap font-mono">{formatSeconds(c.getValue())}</span>,
+      }),
+      col.accessor((r) => r.channels.length, {
+        id: 'channels',
+        header: 'Channels',
+        enableSorting: false,
+        meta: { numeric: true } satisfies Numeric,
+        cell: (c) => <span className="font-mono">{c.getValue()}</span>,
+      }),
+      col.accessor((r) => viewCounts?.get(r.id) ?? 0, {
+        id: 'views',
+        header: 'Views',
+        enableSorting: false,
+        meta: { numeric: true } satisfies Numeric,
+        cell: (c) => <span className="font-mono">{viewCounts ? c.getValue() : '…'}</span>,
+      }),
+      col.accessor('registeredAt', {
+        id: 'registered',
+        header: 'Registered',
+        sortDescFirst: true,
+        // ISO 8601 in UTC sorts as text
+        sortingFn: (a, b) => a.original.registeredAt.localeCompare(b.original.registeredAt),
+        cell: ({ row }) => (
+          <span className="text-xs text-mist-300">
+            {row.original.registeredBy ?? 'Someone'}
+            <br />
+            <time dateTime={row.original.registeredAt} className="font-mono text-mist-500">
+              {formatDateTime(row.original.registeredAt)}
+            </time>
+          </span>
+        ),
+      }),
+    ],
+    [viewCounts],
+  );
+
+  const table = useReactTable({
+    data: recordings ?? [],
+    columns,
+    state: { sorting },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    enableSortingRemoval: false,
+    enableMultiSort: false,
+  });
+
   return (
     <Section title="Recordings">
       <div className="flex flex-col gap-3">
@@ -20,30 +111,25 @@ export function RecordingsSection({ projectId }: { projectId: number }) {
           <div className="overflow-x-auto">
             <table className="w-full border-collapse text-sm" data-testid="project-recordings">
               <thead>
-                <tr className={tableHeadRowClass}>
-                  <th className="py-2 pr-3 font-medium">Name</th>
-                  <th className="py-2 pr-3 font-medium">Format</th>
-                  <th className="py-2 pr-3 text-right font-medium">Sample rate</th>
-                  <th className="py-2 pr-3 text-right font-medium">Duration</th>
-                  <th className="py-2 pr-3 text-right font-medium">Channels</th>
-                  <th className="py-2 font-medium">Registered</th>
-                </tr>
+                {table.getHeaderGroups().map((hg) => (
+                  <tr key={hg.id} className={tableHeadRowClass}>
+                    {hg.headers.map((h) => (
+                      <SortHeader key={h.id} header={h} numeric={(h.column.columnDef.meta as Numeric | undefined)?.numeric} />
+                    ))}
+                  </tr>
+                ))}
               </thead>
               <tbody>
-                {recordings.map((r) => (
-                  <tr key={r.id} className="border-b border-ink-800 align-top">
-                    <td className="break-all py-2 pr-3 text-mist-100">{r.name}</td>
-                    <td className="py-2 pr-3 font-mono text-mist-300">{r.format.toUpperCase()}</td>
-                    <td className="whitespace-nowrap py-2 pr-3 text-right font-mono">{formatHz(r.sampleRateHz)}</td>
-                    <td className="whitespace-nowrap py-2 pr-3 text-right font-mono">{formatSeconds(r.durationS)}</td>
-                    <td className="py-2 pr-3 text-right font-mono">{r.channels.length}</td>
-                    <td className="py-2 text-xs text-mist-300">
-                      {r.registeredBy ?? 'Someone'}
-                      <br />
-                      <time dateTime={r.registeredAt} className="font-mono text-mist-500">
-                        {formatDateTime(r.registeredAt)}
-                      </time>
-                    </td>
+                {table.getRowModel().rows.map((row) => (
+                  <tr key={row.id} className="border-b border-ink-800 align-top">
+                    {row.getVisibleCells().map((cell) => (
+                      <td
+                        key={cell.id}
+                        className={`py-2 pr-3 ${(cell.column.columnDef.meta as Numeric | undefined)?.numeric ? 'text-right' : ''}`}
+                      >
+                        {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                      </td>
+                    ))}
                   </tr>
                 ))}
               </tbody>

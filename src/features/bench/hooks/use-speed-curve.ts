@@ -1,0 +1,132 @@
+import { useEffect, useMemo, useState } from 'react';
+import { speedTask, type SpeedTaskRequest } from '../../../../workers/analysis.worker';
+import { speedFromRamp, type SpeedCurve } from '../../../../workers/dsp/speed';
+import { calibrationProblem, unitsPerFileUnit, type ChannelSetup } from '../../../../workers/io/channel-setup';
+import { isAbort, runTask } from '../../../lib/workers/analysis-tasks';
+import * as Comlink from 'comlink';
+
+export type SpeedSource =
+  | { kind: 'none' }
+  | { kind: 'tacho'; channel: number; ppr: number; triggerLevel: number | null }
+  | { kind: 'channel'; channel: number; rpmPerUnit: number }
+  | { kind: 'ramp'; startRpm: number; endRpm: number };
+
+export const DEFAULT_PPR = 60;
+
+/** A tacho channel, if the setup has one, at 60 pulses per revolution; else none. */
+export function defaultSpeedSource(setup: ChannelSetup[]): SpeedSource {
+  const tacho = setup.find((c) => c.quantity === 'tacho');
+  return tacho ? { kind: 'tacho', channel: tacho.index, ppr: DEFAULT_PPR, triggerLevel: null } : { kind: 'none' };
+}
+
+/** What keeps a source from giving a speed, in the engineer's words; null when it is usable. */
+export function speedSourceProblem(s: SpeedSource, setup: ChannelSetup[]): string | null {
+  switch (s.kind) {
+    case 'none':
+      return null;
+    case 'tacho':
+      if (!setup.some((c) => c.index === s.channel)) return 'Choose the tacho channel.';
+      if (!(Number.isInteger(s.ppr) && s.ppr >= 1)) return 'Pulses per revolution must be a whole number of at least 1.';
+      if (s.triggerLevel !== null && !Number.isFinite(s.triggerLevel)) return 'The trigger level must be a number (or left empty for automatic).';
+      return null;
+    case 'channel':
+      if (!setup.some((c) => c.index === s.channel)) return 'Choose the speed channel.';
+      if (!(Number.isFinite(s.rpmPerUnit) && s.rpmPerUnit !== 0)) return 'The scale must be a number of rpm per unit other than 0.';
+      return null;
+    case 'ramp':
+      if (!(Number.isFinite(s.startRpm) && s.startRpm >= 0 && Number.isFinite(s.endRpm) && s.endRpm >= 0)) return 'Type the start and end speed in rpm (0 or more).';
+      return null;
+  }
+}
+
+export type SpeedState =
+  | { kind: 'none' }
+  | { kind: 'computing' }
+  | { kind: 'done'; curve: SpeedCurve; minRpm: number; maxRpm: number }
+  | { kind: 'error'; message: string };
+
+const PAUSE_MS = 250;
+
+function summary(curve: SpeedCurve): SpeedState {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const r of curve.rpm) {
+    if (Number.isFinite(r)) {
+      lo = Math.min(lo, r);
+      hi = Math.max(hi, r);
+    }
+  }
+  if (!Number.isFinite(lo)) return { kind: 'error', message: 'The speed has no values that are numbers.' };
+  return { kind: 'done', curve, minRpm: lo, maxRpm: hi };
+}
+
+/**
+ * The speed of the open recording from its source: a tacho or speed channel in an analysis worker
+ * (on a copy of the calibrated channel), a typed ramp here. Typed values are taken a moment after the
+ * last key.
+ */
+export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channels: { indices: number[]; samples: Float32Array[] }, fsHz: number, durationS: number) {
+  const [state, setState] = useState<SpeedState>({ kind: 'none' });
+  const problem = speedSourceProblem(source, setup);
+  const channel = source.kind === 'tacho' || source.kind === 'channel' ? setup.find((c) => c.index === source.channel) : undefined;
+  const scale = channel && calibrationProblem(channel.calibration) === null ? unitsPerFileUnit(channel.calibration) : 1;
+  const key = useMemo(() => JSON.stringify({ source, scale }), [source, scale]);
+
+  useEffect(() => {
+    if (problem) {
+      setState({ kind: 'error', message: problem });
+      return;
+    }
+    const s: SpeedSource = JSON.parse(key).source;
+    if (s.kind === 'none') {
+      setState({ kind: 'none' });
+      return;
+    }
+    if (s.kind === 'ramp') {
+      try {
+        setState(summary(speedFromRamp([{ tS: 0, rpm: s.startRpm }, { tS: durationS, rpm: s.endRpm }], durationS)));
+      } catch (e) {
+        setState({ kind: 'error', message: e instanceof Error ? e.message : String(e) });
+      }
+      return;
+    }
+    const at = channels.indices.indexOf(s.channel);
+    if (at < 0) {
+      setState({ kind: 'error', message: 'That channel is not loaded.' });
+      return;
+    }
+    const raw = channels.samples[at];
+    const make = (): SpeedTaskRequest => {
+      const samples = raw.slice();
+      if (scale !== 1) for (let i = 0; i < samples.length; i++) samples[i] *= scale;
+      return s.kind === 'tacho'
+        ? { kind: 'tacho', samples, fsHz, ppr: s.ppr, ...(s.triggerLevel === null ? {} : { triggerLevel: s.triggerLevel }) }
+        : { kind: 'channel', samples, fsHz, rpmPerUnit: s.rpmPerUnit };
+    };
+    let job: { cancel(): void } | null = null;
+    const timer = setTimeout(() => {
+      setState({ kind: 'computing' });
+      const j = runTask(
+        'speed',
+        (remote) => {
+          const req = make();
+          return remote.speed(Comlink.transfer(req, [req.samples.buffer as ArrayBuffer]));
+        },
+        () => speedTask(make()),
+      );
+      job = j;
+      j.promise.then(
+        (curve) => setState(summary(curve)),
+        (e: unknown) => {
+          if (!isAbort(e)) setState({ kind: 'error', message: e instanceof Error ? e.message : String(e) });
+        },
+      );
+    }, PAUSE_MS);
+    return () => {
+      clearTimeout(timer);
+      job?.cancel();
+    };
+  }, [key, problem, channels, fsHz, durationS]);
+
+  return state;
+}

@@ -1,0 +1,39 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { SnapshotHeader } from '../../../../server/schemas/views';
+import { decodeSnapshot } from '../../../../server/services/snapshot-codec';
+import { ApiError } from '../../../lib/api-client';
+import { viewKeys } from './keys';
+import { getBytes } from './raw';
+
+export interface DecodedSnapshot {
+  header: SnapshotHeader;
+  /** width × height bytes, row 0 at the y axis's `from` end. */
+  map: Uint8Array;
+}
+
+async function readSnapshot(path: string): Promise<DecodedSnapshot> {
+  const decoded = decodeSnapshot(await getBytes(path));
+  if (!decoded.ok) throw new ApiError(0, 'BAD_SNAPSHOT', `The snapshot cannot be read: ${decoded.message}`);
+  return { header: decoded.header, map: decoded.map };
+}
+
+// A snapshot is replaced only from the Bench: no need to ask again while the page is open.
+export const snapshotQuery = (viewId: number, enabled: boolean) =>
+  queryOptions({
+    queryKey: viewKeys.snapshot(viewId),
+    queryFn: () => readSnapshot(`/views/${viewId}/snapshot`),
+    enabled,
+    staleTime: Infinity,
+  });
+
+export const useSnapshot = (viewId: number, enabled: boolean) => useQuery(snapshotQuery(viewId, enabled));
+
+export const sharedSnapshotQuery = (token: string, enabled: boolean) =>
+  queryOptions({
+    queryKey: viewKeys.sharedSnapshot(token),
+    queryFn: () => readSnapshot(`/shared/${token}/snapshot`),
+    enabled,
+    staleTime: Infinity,
+  });
+
+export const useSharedSnapshot = (token: string, enabled: boolean) => useQuery(sharedSnapshotQuery(token, enabled));

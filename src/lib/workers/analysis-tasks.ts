@@ -1,0 +1,134 @@
+/**
+ * The Bench's single, longer analysis tasks (speed, the map against speed, the inverter findings), each
+ * in its own lane: a worker of its own, so a long task never holds up the map's chunks, and a newer
+ * task on the same lane ends the older one (its worker is stopped). Where no worker can start (blocked,
+ * or none in this browser) the task runs on this thread after a yield, from a fresh copy of its input.
+ */
+import * as Comlink from 'comlink';
+import type { AnalysisWorkerApi } from '../../../workers/analysis.worker';
+
+export type TaskLane = 'speed' | 'speed-map' | 'findings';
+
+export interface TaskJob<T> {
+  promise: Promise<T>;
+  cancel(): void;
+}
+
+interface Lane {
+  worker: Worker;
+  remote: Comlink.Remote<AnalysisWorkerApi>;
+  answered: boolean;
+  fail: ((e: Error) => void) | null;
+}
+
+const lanes = new Map<TaskLane, Lane>();
+let noWorkers = typeof Worker === 'undefined';
+
+function abortError(): Error {
+  const e = new Error('The task was cancelled.');
+  e.name = 'AbortError';
+  return e;
+}
+
+function laneFor(name: TaskLane): Lane | null {
+  if (noWorkers) return null;
+  let lane = lanes.get(name);
+  if (lane) return lane;
+  try {
+    const worker = new Worker(new URL('../../../workers/analysis.worker.ts', import.meta.url), { type: 'module', name: `fanlight-${name}` });
+    const created: Lane = { worker, remote: Comlink.wrap<AnalysisWorkerApi>(worker), answered: false, fail: null };
+    worker.addEventListener('error', (e) => {
+      e.preventDefault();
+      if (!created.answered) noWorkers = true;
+      stop(name, created);
+      created.fail?.(new WorkerUnavailable());
+    });
+    lanes.set(name, created);
+    return created;
+  } catch {
+    noWorkers = true;
+    return null;
+  }
+}
+
+class WorkerUnavailable extends Error {
+  constructor() {
+    super('No analysis worker could start.');
+    this.name = 'WorkerUnavailable';
+  }
+}
+
+function stop(name: TaskLane, lane: Lane) {
+  if (lanes.get(name) === lane) lanes.delete(name);
+  lane.worker.terminate();
+}
+
+const current = new Map<TaskLane, () => void>();
+
+/**
+ * Runs a task: `viaWorker` with the lane's worker (it sends its input, transferred), or `inline` on
+ * this thread. Each builds its input afresh, since a transfer empties the buffers it sends.
+ */
+export function runTask<T>(name: TaskLane, viaWorker: (remote: Comlink.Remote<AnalysisWorkerApi>) => Promise<T>, inline: () => T): TaskJob<T> {
+  current.get(name)?.();
+  let cancelled = false;
+  let reject!: (e: Error) => void;
+  let lane: Lane | null = null;
+  const runInline = () =>
+    new Promise<T>((res, rej) =>
+      setTimeout(() => {
+        if (cancelled) return rej(abortError());
+        try {
+          res(inline());
+        } catch (e) {
+          rej(e);
+        }
+      }, 0),
+    );
+  const promise = new Promise<T>((resolve, rej) => {
+    reject = rej;
+    lane = laneFor(name);
+    if (!lane) {
+      runInline().then(resolve, rej);
+      return;
+    }
+    const mine = lane;
+    mine.fail = (e) => {
+      if (cancelled) return;
+      if (e instanceof WorkerUnavailable) runInline().then(resolve, rej);
+      else rej(e);
+    };
+    viaWorker(mine.remote).then(
+      (v) => {
+        mine.answered = true;
+        mine.fail = null;
+        if (!cancelled) resolve(v);
+      },
+      (e: unknown) => {
+        mine.answered = true;
+        mine.fail = null;
+        if (!cancelled) rej(e instanceof Error ? e : new Error(String(e)));
+      },
+    );
+  });
+  promise.catch(() => undefined);
+  const cancel = () => {
+    if (cancelled) return;
+    cancelled = true;
+    if (current.get(name) === cancel) current.delete(name);
+    // A worker busy with the stale task is stopped; the next task gets a fresh one.
+    if (lane && lane.fail) {
+      lane.fail = null;
+      stop(name, lane);
+    }
+    reject(abortError());
+  };
+  current.set(name, cancel);
+  promise.then(
+    () => current.get(name) === cancel && current.delete(name),
+    () => current.get(name) === cancel && current.delete(name),
+  );
+  return { promise, cancel };
+}
+
+export const isAbort = (e: unknown) => e instanceof Error && e.name === 'AbortError';

@@ -96,9 +96,15 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   const families: FamilyTrackReport[] = familyGuides.map((g, i) => {
     const t = trackAgainstSpeed(trackGuide(power, layout, g, ctx, trackOpts), frameRpm, rpmStep);
     const { m, n } = familyList[i];
+    // The peak of the track after a 5-point running median: a line of something else (an order that
+    // is not a guide) crossing the band lasts a bin or two and must not make a family look strong.
+    const smoothed = t.rms.map((_, j) => {
+      const w = t.rms.slice(Math.max(0, j - 2), j + 3).filter((v, k) => !t.crossing[Math.max(0, j - 2) + k] && Number.isFinite(v));
+      return w.length ? w.sort((a, b) => a - b)[w.length >> 1] : NaN;
+    });
     let peakRms = 0;
     let peakRpm = NaN;
-    t.rms.forEach((v, j) => {
+    smoothed.forEach((v, j) => {
       if (!t.crossing[j] && v > peakRms) {
         peakRms = v;
         peakRpm = t.rpm[j];

@@ -75,7 +75,7 @@ export function BenchPage() {
         openFingerprint={open?.entry.fingerprint ?? null}
         busy={reading !== null}
         onOpen={(fingerprint) => void openFromLibrary(fingerprint)}
-        onOpenFile={(file, name) => void reader.read(file, name)}
+        onOpenFile={(file, name, setup) => void reader.read(file, name, undefined, setup)}
         onRemoved={(fingerprint) => fingerprint === open?.entry.fingerprint && close()}
       />
     </>

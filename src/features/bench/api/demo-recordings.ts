@@ -1,4 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { ChannelSetup, Quantity } from '../../../../workers/io/channel-setup';
 import { api, ApiError } from '../../../lib/api-client';
 
 export interface DemoRecording {
@@ -6,7 +7,13 @@ export interface DemoRecording {
   title: string;
   description: string;
   sizeBytes: number;
+  /** How each channel was recorded, so the Bench can set the channels up on opening */
+  channels: { name: string; quantity: Quantity; unit: string; factor: number }[];
 }
+
+/** The channel setup the demo file was made with (names, quantities, units, full-scale factors). */
+export const demoSetup = (r: DemoRecording): ChannelSetup[] =>
+  r.channels.map((c, index) => ({ index, name: c.name, quantity: c.quantity, unit: c.unit, calibration: { kind: 'scale', factor: c.factor } }));
 
 /** The demo recordings the server offers; null where it offers none (the route answers 404). */
 export const demoRecordingsQuery = queryOptions({

@@ -3,7 +3,8 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { formatDateTime, formatMegabytes, formatSeconds } from '../../../lib/format';
 import { useLibrary, useRemoveFromLibrary, useStorageEstimate } from '../../library/api/library';
-import { fetchDemoRecording, useDemoRecordings } from '../api/demo-recordings';
+import type { ChannelSetup } from '../../../../workers/io/channel-setup';
+import { demoSetup, fetchDemoRecording, useDemoRecordings } from '../api/demo-recordings';
 import { BenchPanel } from './bench-panel';
 
 interface LibraryPanelProps {
@@ -11,11 +12,11 @@ interface LibraryPanelProps {
   busy: boolean;
   onOpen: (fingerprint: string) => void;
   /** A file fetched from elsewhere (a demo recording), read like a drop */
-  onOpenFile: (file: Blob, name: string) => void;
+  onOpenFile: (file: Blob, name: string, setup?: ChannelSetup[]) => void;
   onRemoved: (fingerprint: string) => void;
 }
 
-function DemoRecordings({ busy, onOpenFile }: { busy: boolean; onOpenFile: (file: Blob, name: string) => void }) {
+function DemoRecordings({ busy, onOpenFile }: { busy: boolean; onOpenFile: LibraryPanelProps['onOpenFile'] }) {
   const { data } = useDemoRecordings();
   const [fetching, setFetching] = useState<string | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -24,7 +25,8 @@ function DemoRecordings({ busy, onOpenFile }: { busy: boolean; onOpenFile: (file
     setProblem(null);
     setFetching(file);
     try {
-      onOpenFile(await fetchDemoRecording(file), file);
+      const recording = data.find((r) => r.file === file);
+      onOpenFile(await fetchDemoRecording(file), file, recording ? demoSetup(recording) : undefined);
     } catch (e) {
       setProblem(e instanceof Error ? e.message : String(e));
     } finally {

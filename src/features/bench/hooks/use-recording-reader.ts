@@ -1,6 +1,6 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { DecodedWithFingerprint } from '../../../../workers/decode.worker';
-import { defaultSetup } from '../../../../workers/io/channel-setup';
+import { defaultSetup, type ChannelSetup } from '../../../../workers/io/channel-setup';
 import type { CsvOptions } from '../../../../workers/io/recording';
 import { DecodeFailure, decodeInWorker } from '../../../lib/workers/decode-client';
 import { useAddToLibrary } from '../../library/api/library';
@@ -31,7 +31,7 @@ export interface ReaderNotice {
   message: string;
 }
 
-function entryFrom(decoded: DecodedWithFingerprint, fileName: string, csv: CsvOptions | undefined): LibraryEntry {
+function entryFrom(decoded: DecodedWithFingerprint, fileName: string, csv: CsvOptions | undefined, setup?: ChannelSetup[]): LibraryEntry {
   const h = decoded.header;
   return {
     fingerprint: decoded.fingerprint,
@@ -42,7 +42,7 @@ function entryFrom(decoded: DecodedWithFingerprint, fileName: string, csv: CsvOp
     frames: h.frames,
     durationS: h.durationS,
     channels: h.channels,
-    setup: defaultSetup(h.channels),
+    setup: setup && setup.length === h.channels.length ? setup : defaultSetup(h.channels),
     addedAt: new Date().toISOString(),
     ...(csv ? { csv } : {}),
   };
@@ -66,7 +66,7 @@ export function useRecordingReader(onOpened?: (entry: LibraryEntry) => void) {
 
   useEffect(() => () => current.current?.cancel(), []);
 
-  const read = useCallback(async (file: Blob, fileName: string, csv?: CsvOptions) => {
+  const read = useCallback(async (file: Blob, fileName: string, csv?: CsvOptions, setup?: ChannelSetup[]) => {
     // For the browser benchmark: from here to 'fanlight:map-painted'
     performance.mark('fanlight:drop');
     current.current?.cancel();
@@ -95,7 +95,7 @@ export function useRecordingReader(onOpened?: (entry: LibraryEntry) => void) {
     }
     if (current.current !== job) return;
     try {
-      const entry = await addRef.current({ entry: entryFrom(decoded, fileName, csv), file });
+      const entry = await addRef.current({ entry: entryFrom(decoded, fileName, csv, setup), file });
       if (current.current !== job) return;
       setOpen({ entry, decoded });
       openedRef.current?.(entry);

@@ -54,7 +54,8 @@ export async function runBrowserBench(log: (line: string) => void): Promise<Brow
       }),
     );
     const wav = Buffer.from(writeWav(channels, { sampleRateHz: FS, bits: 24 }));
-    const page = await browser.newPage({ viewport: { width: 1920, height: 1200 } });
+    // wide enough that the map canvas is at least the 1500×800 of the goal
+    const page = await browser.newPage({ viewport: { width: 2560, height: 1440 } });
     await page.goto(`${baseUrl}/signin`);
     await page.getByLabel('E-mail', { exact: true }).fill('engineer@fanlight.test');
     await page.getByLabel('Password').fill(DEMO_PASSWORD);

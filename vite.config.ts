@@ -60,6 +60,8 @@ export default defineConfig({
           fileParallelism: false,
           globalSetup: ['tests/e2e/global-setup.ts'],
           sequence: { groupOrder: 2 },
+          // a loaded 2-core CI machine is slower than a desk: wait longer before a poll fails
+          expect: { poll: { timeout: 20_000 } },
           testTimeout: 60_000,
           hookTimeout: 60_000,
         },

@@ -1,11 +1,10 @@
 /** Serves the API and the built client on one port. Used by `npm start` (through server/ops/start.ts). */
 import type { Server } from 'node:http';
 import { createApp } from './app';
-import { loadConfig } from './config';
+import { loadConfig, type AppConfig } from './config';
 import { createDb } from './db/knex';
 
-export async function serve(): Promise<{ server: Server; url: string; stop(): Promise<void> }> {
-  const config = loadConfig();
+export async function serve(config: AppConfig = loadConfig()): Promise<{ server: Server; url: string; stop(): Promise<void> }> {
   const db = createDb(config.db);
   const { app, close } = createApp({ config, db });
   const server = await new Promise<Server>((resolve, reject) => {

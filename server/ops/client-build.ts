@@ -20,6 +20,13 @@ export async function buildClientIfStale(outDir: string): Promise<'built' | 'fre
   const sourcesAt = Math.max(...INPUTS.map((p) => newestMtime(path.join(PROJECT_ROOT, p))));
   if (builtAt > sourcesAt) return 'fresh';
   const { build } = await import('vite');
-  await build({ configFile: path.join(PROJECT_ROOT, 'vite.config.ts'), logLevel: 'warn', build: { outDir } });
+  // Vite's build sets NODE_ENV=production for the process; the server that starts next must not inherit it.
+  const nodeEnv = process.env.NODE_ENV;
+  try {
+    await build({ configFile: path.join(PROJECT_ROOT, 'vite.config.ts'), logLevel: 'warn', build: { outDir } });
+  } finally {
+    if (nodeEnv === undefined) delete process.env.NODE_ENV;
+    else process.env.NODE_ENV = nodeEnv;
+  }
   return 'built';
 }

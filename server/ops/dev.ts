@@ -16,7 +16,7 @@ const { mariadb } = await prepareDatabase('app', config.db);
 onShutdown(() => mariadb.stop());
 prepareDemoRecordings(config);
 const mailLine = await startMailFakeIfWanted(config);
-const app = await serve();
+const app = await serve(config);
 onShutdown(() => app.stop());
 
 const { createServer } = await import('vite');

@@ -23,6 +23,6 @@ console.log(`fanlight: client ${await buildClientIfStale(config.clientDir)}`);
 
 prepareDemoRecordings(config);
 const mailLine = await startMailFakeIfWanted(config);
-const app = await serve();
+const app = await serve(config);
 onShutdown(() => app.stop());
 printBanner(app.url, mailLine ? ['', mailLine] : []);

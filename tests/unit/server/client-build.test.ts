@@ -10,12 +10,14 @@ describe('buildClientIfStale', () => {
   it('builds into the folder asked for, then leaves NODE_ENV as it was', async () => {
     const out = mkdtempSync(path.join(tmpdir(), 'fanlight-build-'));
     const before = process.env.NODE_ENV;
+    delete process.env.NODE_ENV; // as under `npm start`, where it is not set
     try {
       expect(await buildClientIfStale(out)).toBe('built');
       expect(existsSync(path.join(out, 'index.html'))).toBe(true);
-      expect(process.env.NODE_ENV).toBe(before);
+      expect(process.env.NODE_ENV).toBeUndefined();
       expect(await buildClientIfStale(out)).toBe('fresh');
     } finally {
+      process.env.NODE_ENV = before;
       rmSync(out, { recursive: true, force: true });
     }
   }, 180_000);

@@ -13,7 +13,8 @@ import { baseName, downloadBlob } from '../analysis/export';
 import { BenchPanel, toolButtonClass } from './bench-panel';
 import { BottomAxis, LeftAxis, mapAxes } from './map-axes';
 import { MapScale } from './map-scale';
-import { MapView, type MapMode } from './map-view';
+import { MapView, type MapMode, type MarkPlace } from './map-view';
+import type { BenchMark } from '../views/view-snapshot';
 import { windowLabel } from './map-settings';
 
 // The map and the colour bar share this height so their edges line up.
@@ -55,6 +56,10 @@ export interface MapPanelProps {
   onPick: (fHz: number) => void;
   onPin: (x: number) => void;
   onZoom: (factor: number) => void;
+  marks: BenchMark[];
+  onMark: (place: MarkPlace) => void;
+  /** The mark mode's text field, under the map tools */
+  markTools: ReactNode;
   windowName: keyof typeof windowLabel;
   fsHz: number;
 }
@@ -155,6 +160,15 @@ export function MapPanel(p: MapPanelProps) {
           >
             Box zoom
           </button>
+          <button
+            type="button"
+            className={toolButtonClass(p.mode === 'mark')}
+            aria-pressed={p.mode === 'mark'}
+            title="Click the map for a point mark, Shift-drag for a box (m)"
+            onClick={() => p.onMode(p.mode === 'mark' ? 'pan' : 'mark')}
+          >
+            Add mark
+          </button>
           <button type="button" className={toolButtonClass()} onClick={reset} title="The whole map (0)">
             Reset view
           </button>
@@ -194,8 +208,15 @@ export function MapPanel(p: MapPanelProps) {
                 probe={p.probe}
                 onPick={p.onPick}
                 onPin={p.onPin}
+                marks={p.marks}
+                onMark={p.onMark}
                 label={`Map: ${p.swapped ? 'frequency across' : `${p.against} across`}, ${p.swapped ? `${p.against} up` : 'frequency up'}, level as colour`}
               />
+              {p.mode === 'mark' && (
+                <p className="pointer-events-none absolute left-2 top-2 rounded bg-ink-950/85 px-2 py-1 text-xs text-accent" role="status">
+                  Click for a point mark, Shift-drag for a box
+                </p>
+              )}
               {p.mode === 'pick' && (
                 <p className="pointer-events-none absolute left-2 top-2 rounded bg-ink-950/85 px-2 py-1 text-xs text-accent" role="status">
                   Click the carrier on the map
@@ -222,6 +243,7 @@ export function MapPanel(p: MapPanelProps) {
           />
         </div>
         <Readout stores={p.stores} lines={p.lines} binHz={layout?.binHz ?? 1} weighting={p.weighting} against={p.against} />
+        {p.markTools}
         <div className="flex min-h-7 flex-wrap items-center gap-3 pl-16">
           {status.kind === 'computing' && (
             <>

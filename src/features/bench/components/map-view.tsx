@@ -5,8 +5,12 @@ import { MapImage } from '../map/map-image';
 import type { MapRaster } from '../map/map-raster';
 import { boxed, dragged, fullView, geometry, zoomAbout, type Extents, type Viewport } from '../map/viewport';
 import type { BenchPointer, BenchStores } from '../state/bench-stores';
+import type { BenchMark } from '../views/view-snapshot';
 
-export type MapMode = 'pan' | 'box' | 'pick';
+/** A mark placed on the map, in the map's terms (x = time or speed, f = frequency). */
+export type MarkPlace = { kind: 'point'; x: number; f: number } | { kind: 'box'; x0: number; x1: number; f0: number; f1: number };
+
+export type MapMode = 'pan' | 'box' | 'pick' | 'mark';
 
 export const GUIDE_COLOURS = {
   selected: '#f0a93e',
@@ -35,6 +39,9 @@ interface Props {
   probe: (x: number, f: number) => BenchPointer | null;
   onPick: (fHz: number) => void;
   onPin: (x: number) => void;
+  /** Marks waiting for the view to be saved, drawn over the map */
+  marks: BenchMark[];
+  onMark: (place: MarkPlace) => void;
   label: string;
 }
 
@@ -253,6 +260,43 @@ export function MapView(props: Props) {
         line(Math.round(e) + 0.5, Math.round(f) + 0.5, Math.round(h) + 0.5, Math.round(i) + 0.5);
       }
     }
+    // pending marks: a dashed ring or box with its number
+    ctx.lineWidth = 1.75 * dpr;
+    ctx.font = `600 ${11 * dpr}px ${FONT}`;
+    ctx.textBaseline = 'alphabetic';
+    p.marks.forEach((m, i) => {
+      ctx.setLineDash([4 * dpr, 3 * dpr]);
+      let labelAt: [number, number];
+      if (m.kind === 'point') {
+        const [x, y] = g.toScreen(m.x, m.f);
+        ctx.strokeStyle = 'rgba(13,17,23,0.8)';
+        ctx.lineWidth = 4 * dpr;
+        ctx.beginPath();
+        ctx.arc(x, y, 9 * dpr, 0, 2 * Math.PI);
+        ctx.stroke();
+        ctx.strokeStyle = '#f0a93e';
+        ctx.lineWidth = 2 * dpr;
+        ctx.stroke();
+        labelAt = [x + 10 * dpr, y - 10 * dpr];
+      } else {
+        const [ax, ay] = g.toScreen(m.x0, m.f0);
+        const [bx, by] = g.toScreen(m.x1, m.f1);
+        const [x0, x1, y0, y1] = [Math.min(ax, bx), Math.max(ax, bx), Math.min(ay, by), Math.max(ay, by)];
+        ctx.strokeStyle = 'rgba(13,17,23,0.8)';
+        ctx.lineWidth = 4 * dpr;
+        ctx.strokeRect(x0, y0, x1 - x0, y1 - y0);
+        ctx.strokeStyle = '#f0a93e';
+        ctx.lineWidth = 2 * dpr;
+        ctx.strokeRect(x0, y0, x1 - x0, y1 - y0);
+        labelAt = [x1 + 2 * dpr, y0 - 2 * dpr];
+      }
+      ctx.setLineDash([]);
+      ctx.lineWidth = 3 * dpr;
+      ctx.strokeStyle = '#0d1117';
+      ctx.strokeText(String(i + 1), labelAt[0], labelAt[1]);
+      ctx.fillStyle = '#f0a93e';
+      ctx.fillText(String(i + 1), labelAt[0], labelAt[1]);
+    });
     const d = drag.current;
     if (d && d.box && d.moved) {
       const [x0, y0] = [d.start[0] * dpr, d.start[1] * dpr];
@@ -338,7 +382,7 @@ export function MapView(props: Props) {
 
   useEffect(() => {
     request({ cursor: true });
-  }, [props.pinnedX]);
+  }, [props.pinnedX, props.marks]);
 
   useEffect(() => {
     const offView = stores.viewport.subscribe(() => request({ map: true, guides: true, cursor: true }));
@@ -419,7 +463,14 @@ export function MapView(props: Props) {
     if (!d.moved) {
       const hit = domainAt(at[0], at[1]);
       if (hit && p.mode === 'pick') p.onPick(hit.f);
+      else if (hit && p.mode === 'mark') p.onMark({ kind: 'point', x: hit.x, f: hit.f });
       else if (hit) p.onPin(hit.x);
+    } else if (d.box && p.mode === 'mark') {
+      const a = domainAt(d.start[0], d.start[1]);
+      const b = domainAt(at[0], at[1]);
+      if (a && b && Math.abs(at[0] - d.start[0]) > 3 && Math.abs(at[1] - d.start[1]) > 3) {
+        p.onMark({ kind: 'box', x0: Math.min(a.x, b.x), x1: Math.max(a.x, b.x), f0: Math.min(a.f, b.f), f1: Math.max(a.f, b.f) });
+      }
     } else if (d.box && p.extents) {
       const box = boxRef.current!;
       if (Math.abs(at[0] - d.start[0]) > 6 && Math.abs(at[1] - d.start[1]) > 6) {
@@ -429,7 +480,7 @@ export function MapView(props: Props) {
     request({ cursor: true });
   };
 
-  const cursor = props.mode === 'pick' ? 'cursor-copy' : props.mode === 'box' ? 'cursor-zoom-in' : 'cursor-crosshair';
+  const cursor = props.mode === 'pick' || props.mode === 'mark' ? 'cursor-copy' : props.mode === 'box' ? 'cursor-zoom-in' : 'cursor-crosshair';
 
   return (
     <div ref={boxRef} className="absolute inset-0">

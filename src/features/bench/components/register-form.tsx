@@ -15,7 +15,7 @@ import type { LibraryEntry } from '../../library/library-store';
 type Outcome = { tone: 'ok' | 'error'; message: string; projectId?: number };
 
 /** What would keep the server from taking this description, in the engineer's words. */
-function setupProblems(setup: ChannelSetup[]): string[] {
+export function setupProblems(setup: ChannelSetup[]): string[] {
   return setup.flatMap((c) => {
     const label = `Channel ${c.index + 1}${c.name.trim() ? ` (${c.name.trim()})` : ''}`;
     const problems: string[] = [];

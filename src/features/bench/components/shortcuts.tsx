@@ -7,6 +7,7 @@ export const SHORTCUTS: [string, string][] = [
   ['s', 'Swap axes (frequency across or up)'],
   ['g', 'Add the next whole order guide'],
   ['c', 'Add a carrier guide that follows the detected carrier'],
+  ['m', 'Add marks: click for a point, Shift-drag for a box'],
   ['Shift + drag', 'Zoom into a box'],
   ['?', 'Show or hide this list'],
   ['Esc', 'Close this list, leave a pick mode'],
@@ -19,6 +20,7 @@ export interface ShortcutActions {
   swap(): void;
   addOrder(): void;
   addCarrier(): void;
+  toggleMark(): void;
   toggleHelp(): void;
   escape(): void;
   /** The list is open: only ? and Esc act */
@@ -50,6 +52,7 @@ export function useShortcuts(actions: ShortcutActions) {
         S: () => a.swap(),
         g: () => a.addOrder(),
         c: () => a.addCarrier(),
+        m: () => a.toggleMark(),
         '?': () => a.toggleHelp(),
         Escape: () => a.escape(),
       };

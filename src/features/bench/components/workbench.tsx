@@ -3,6 +3,8 @@ import { rpmAtTimes } from '../../../../workers/dsp/speed';
 import { makeWindow } from '../../../../workers/dsp/window';
 import { calibrationProblem, unitsPerFileUnit } from '../../../../workers/io/channel-setup';
 import { Notice } from '../../../components/ui/notice';
+import { TextField } from '../../../components/ui/text-field';
+import { MARK_TEXT_MAX } from '../../../../server/schemas/views';
 import { formatHz, formatSeconds } from '../../../lib/format';
 import { frameAt, frameAtRpm, frameTimes as frameTimesOf } from '../analysis/spectra';
 import { useFindings, useSpeedMap } from '../hooks/use-analysis';
@@ -24,7 +26,9 @@ import { carrierSummary, FindingsPanel, type GoTo } from './findings-panel';
 import { GuidesPanel } from './guides-panel';
 import { MapPanel } from './map-panel';
 import { DEFAULT_RANGE_DB, MapSettingsBar, useMapSettings, useSettledValue } from './map-settings';
-import type { MapMode } from './map-view';
+import type { MapMode, MarkPlace } from './map-view';
+import { SaveViewForm, type ViewCapture } from './save-view-form';
+import { benchViewState, quantiseVisible, snapshotHeaderOf, type BenchMark, type BenchViewInputs } from '../views/view-snapshot';
 import { RegisterForm } from './register-form';
 import { ShortcutsDialog, useShortcuts } from './shortcuts';
 import { SpeedSourceForm, type PoleChoice } from './speed-source';
@@ -152,6 +156,17 @@ export function Workbench({
   const [pinnedTimeS, setPinnedTimeS] = useState<number | null>(null);
   const [help, setHelp] = useState(false);
   const [note, setNote] = useState<string | null>(null);
+  // Marks placed on the map, kept until the view is saved
+  const [marks, setMarks] = useState<BenchMark[]>([]);
+  const [markText, setMarkText] = useState('');
+  const nextMarkId = useRef(1);
+  const onMark = useCallback(
+    (place: MarkPlace) => {
+      const id = nextMarkId.current++;
+      setMarks((ms) => [...ms, { ...place, id, text: markText.trim() }]);
+    },
+    [markText],
+  );
   const pinnedX = pinnedTimeS === null ? null : against === 'time' ? pinnedTimeS : layout && frameRpm ? frameRpm[frameAt(layout, pinnedTimeS)] : null;
 
   const probe = useCallback(
@@ -247,6 +262,7 @@ export function Workbench({
     swap: () => setSwapped((w) => !w),
     addOrder: () => dispatch({ type: 'add-next-order' }),
     addCarrier: addDetectedCarrier,
+    toggleMark: () => setMode((m) => (m === 'mark' ? 'pan' : 'mark')),
     toggleHelp: () => setHelp((h) => !h),
     escape: () => {
       setHelp(false);
@@ -254,6 +270,76 @@ export function Workbench({
     },
     modal: help,
   });
+
+  const capture = (): ViewCapture | string => {
+    const view = stores.viewport.get();
+    if (!raster || !view || !layout) return 'There is no map to save yet.';
+    if (raster.columnsDone < raster.columns) return 'Wait for the map to be complete before saving it.';
+    if (!rangeOk) return 'Set a level range above 0 dB first.';
+    const inputs: BenchViewInputs = {
+      channelIndex: channelSetup?.index ?? 0,
+      window: s.windowName,
+      blockSize: s.blockSize,
+      overlap: s.overlap,
+      weighting: s.weighting,
+      refRms: reference.refRms,
+      against,
+      swapped,
+      view,
+      colourScale: s.colours,
+      topDb,
+      rangeDb,
+      guides,
+      lines,
+      report,
+      polePairs,
+      durationS: header.durationS,
+    };
+    const picture = quantiseVisible(raster, view, swapped, topDb, rangeDb);
+    return { state: benchViewState(inputs), header: snapshotHeaderOf(inputs, picture), map: picture.map, swapped };
+  };
+
+  const markTools =
+    mode === 'mark' || marks.length > 0 ? (
+      <div className="flex flex-col gap-2 pl-16" data-testid="mark-tools">
+        <div className="flex flex-wrap items-end gap-3">
+          <TextField
+            label="Mark text"
+            className="min-w-56 flex-1"
+            maxLength={MARK_TEXT_MAX}
+            value={markText}
+            onChange={(e) => setMarkText(e.target.value)}
+            placeholder="The text of the next mark you place"
+          />
+          <p className="pb-2 text-xs text-mist-500">
+            {mode === 'mark' ? 'Click the map for a point, Shift-drag for a box.' : 'Choose Add mark (m) to place more.'} Marks are saved with the view.
+          </p>
+        </div>
+        {marks.length > 0 && (
+          <ol className="flex flex-col gap-1 text-xs text-mist-300" data-testid="pending-marks">
+            {marks.map((m, i) => (
+              <li key={m.id} className="flex items-center gap-2">
+                <span className="font-mono text-accent">{i + 1}</span>
+                <span className="font-mono text-mist-500">
+                  {m.kind === 'point'
+                    ? `${m.x.toFixed(2)} ${against === 'speed' ? 'rpm' : 's'}, ${Math.round(m.f)} Hz`
+                    : `${m.x0.toFixed(2)}–${m.x1.toFixed(2)} ${against === 'speed' ? 'rpm' : 's'}, ${Math.round(m.f0)}–${Math.round(m.f1)} Hz`}
+                </span>
+                <span className="min-w-0 flex-1 truncate">{m.text || '(no text)'}</span>
+                <button
+                  type="button"
+                  className="rounded px-1.5 text-mist-500 hover:bg-ink-800 hover:text-mist-100"
+                  aria-label={`Remove mark ${i + 1}`}
+                  onClick={() => setMarks((ms) => ms.filter((x) => x.id !== m.id))}
+                >
+                  Remove
+                </button>
+              </li>
+            ))}
+          </ol>
+        )}
+      </div>
+    ) : null;
 
   const againstNote =
     against === 'speed' && !speedRaster
@@ -346,6 +432,9 @@ export function Workbench({
             onPick={onPick}
             onPin={onPin}
             onZoom={zoom}
+            marks={marks}
+            onMark={onMark}
+            markTools={markTools}
             windowName={s.windowName}
             fsHz={fsHz}
           />
@@ -408,6 +497,18 @@ export function Workbench({
           <BenchPanel title="Register with a project">
             <RegisterForm entry={recording.entry} setup={setup} preferredProjectId={preferredProjectId} />
           </BenchPanel>
+          <div className="mt-4">
+            <BenchPanel title="Save a view">
+              <SaveViewForm
+                entry={recording.entry}
+                setup={setup}
+                preferredProjectId={preferredProjectId}
+                capture={capture}
+                marks={marks}
+                onSaved={() => setMarks([])}
+              />
+            </BenchPanel>
+          </div>
         </div>
       </div>
       {help && <ShortcutsDialog onClose={() => setHelp(false)} />}

@@ -1,0 +1,205 @@
+import { useQueryClient } from '@tanstack/react-query';
+import { useState, type FormEvent } from 'react';
+import { Link } from 'react-router-dom';
+import type { ChannelSetup } from '../../../../workers/io/channel-setup';
+import { registerRecordingBody } from '../../../../server/schemas/recordings';
+import { createViewBody, SNAPSHOT_CONTENT_TYPE, snapshotHeader, type Mark, type SnapshotHeader, type ViewDetail } from '../../../../server/schemas/views';
+import { encodeSnapshot } from '../../../../server/services/snapshot-codec';
+import { Button } from '../../../components/ui/button';
+import { Notice } from '../../../components/ui/notice';
+import { SelectField } from '../../../components/ui/select-field';
+import { TextField } from '../../../components/ui/text-field';
+import { linkClass } from '../../../components/ui/styles';
+import { paths } from '../../../config/paths';
+import { api, ApiError, type ApiErrorBody } from '../../../lib/api-client';
+import { useProjects } from '../../projects/api/projects';
+import { projectRecordingsQuery, useRegisterRecording } from '../../projects/api/recordings';
+import { viewKeys } from '../../views/api/keys';
+import type { LibraryEntry } from '../../library/library-store';
+import { markBody, type BenchMark } from '../views/view-snapshot';
+import { setupProblems } from './register-form';
+
+/** What the workbench hands over when the view is saved: taken at that moment from what is on screen. */
+export interface ViewCapture {
+  state: unknown;
+  header: SnapshotHeader;
+  map: Uint8Array;
+  swapped: boolean;
+}
+
+type Outcome = { tone: 'ok'; viewId: number; title: string; note?: string } | { tone: 'error'; message: string };
+
+async function putSnapshot(viewId: number, bytes: Uint8Array): Promise<void> {
+  const unreachable = () => new ApiError(0, 'NETWORK', 'The server cannot be reached. Check that Fanlight is running.');
+  let response: Response;
+  try {
+    const t = await fetch('/api/auth/csrf', { credentials: 'same-origin', headers: { Accept: 'application/json' } });
+    if (!t.ok) throw unreachable();
+    const { token } = (await t.json()) as { token: string };
+    const form = new FormData();
+    form.append('snapshot', new Blob([bytes.slice()], { type: SNAPSHOT_CONTENT_TYPE }), 'map.fls');
+    response = await fetch(`/api/views/${viewId}/snapshot`, { method: 'PUT', credentials: 'same-origin', headers: { 'X-CSRF-Token': token }, body: form });
+  } catch (e) {
+    throw e instanceof ApiError ? e : unreachable();
+  }
+  if (response.ok) return;
+  const err = ((await response.json().catch(() => undefined)) as { error?: ApiErrorBody } | undefined)?.error;
+  throw new ApiError(response.status, err?.code ?? `HTTP_${response.status}`, err?.message ?? `The server answered ${response.status}.`, err?.fields);
+}
+
+const issuesText = (issues: { path: PropertyKey[]; message: string }[]) =>
+  issues
+    .slice(0, 4)
+    .map((i) => (i.path.length ? `${i.path.map(String).join('.')}: ${i.message}` : i.message))
+    .join(' ');
+
+/**
+ * Saves what the Bench shows as a view of a project: registers the recording there first when the
+ * project does not have it yet, then creates the view, uploads its snapshot and places the pending marks.
+ */
+export function SaveViewForm({
+  entry,
+  setup,
+  preferredProjectId,
+  capture,
+  marks,
+  onSaved,
+}: {
+  entry: LibraryEntry;
+  setup: ChannelSetup[];
+  preferredProjectId: number | null;
+  /** null while there is no map to save */
+  capture: () => ViewCapture | string;
+  marks: BenchMark[];
+  onSaved: () => void;
+}) {
+  const qc = useQueryClient();
+  const { data: projects, isPending, error } = useProjects();
+  const register = useRegisterRecording();
+  const [title, setTitle] = useState('');
+  const [chosen, setChosen] = useState<number | null>(null);
+  const [busy, setBusy] = useState(false);
+  const [outcome, setOutcome] = useState<Outcome | null>(null);
+
+  if (isPending) return <p className="text-sm text-mist-500">Loading your projects…</p>;
+  if (error) return <Notice tone="error">{error.message}</Notice>;
+  const eligible = projects.filter((p) => !p.archived && (p.role === 'engineer' || p.role === 'lead'));
+  if (eligible.length === 0) {
+    return <p className="text-sm text-mist-500">You are not an engineer or lead in any open project, so you cannot save views yet.</p>;
+  }
+  const preferred = eligible.find((p) => p.id === preferredProjectId);
+  const projectId = chosen ?? preferred?.id ?? eligible[0].id;
+  const project = eligible.find((p) => p.id === projectId)!;
+
+  const recordingIdIn = async (pid: number): Promise<number> => {
+    const known = await qc.fetchQuery(projectRecordingsQuery(pid));
+    const found = known.find((r) => r.fingerprint === entry.fingerprint);
+    if (found) return found.id;
+    const problems = setupProblems(setup);
+    if (problems.length > 0) throw new Error(`The recording must be registered with ${project.name} first; fix the channel setup. ${problems.join(' ')}`);
+    const body = registerRecordingBody.safeParse({
+      name: entry.name,
+      fingerprint: entry.fingerprint,
+      format: entry.format,
+      sampleRateHz: entry.sampleRateHz,
+      durationS: entry.durationS,
+      channels: setup.map(({ index, name, quantity, unit, calibration }) => ({ index, name, quantity, unit, calibration })),
+    });
+    if (!body.success) throw new Error(issuesText(body.error.issues));
+    return (await register.mutateAsync({ projectId: pid, body: body.data })).recording.id;
+  };
+
+  const onSubmit = async (e: FormEvent) => {
+    e.preventDefault();
+    setOutcome(null);
+    const taken = capture();
+    if (typeof taken === 'string') {
+      setOutcome({ tone: 'error', message: taken });
+      return;
+    }
+    const header = snapshotHeader.safeParse(taken.header);
+    if (!header.success) {
+      setOutcome({ tone: 'error', message: `The snapshot cannot be made: ${issuesText(header.error.issues)}` });
+      return;
+    }
+    // The same check the server makes, before anything is sent.
+    const draft = createViewBody.safeParse({ title, recordingId: 1, state: taken.state });
+    if (!draft.success) {
+      setOutcome({ tone: 'error', message: issuesText(draft.error.issues) });
+      return;
+    }
+    setBusy(true);
+    try {
+      const recordingId = await recordingIdIn(project.id);
+      const body = createViewBody.parse({ title, recordingId, state: taken.state });
+      const { view } = await api.post<{ view: ViewDetail }>(`/projects/${project.id}/views`, body);
+      await putSnapshot(view.id, encodeSnapshot(header.data, taken.map));
+      const failed: string[] = [];
+      for (const m of marks) {
+        try {
+          await api.post<{ mark: Mark }>(`/views/${view.id}/marks`, markBody(m, taken.swapped));
+        } catch (err) {
+          failed.push(err instanceof Error ? err.message : String(err));
+        }
+      }
+      await qc.invalidateQueries({ queryKey: viewKeys.all });
+      setOutcome({
+        tone: 'ok',
+        viewId: view.id,
+        title: view.title,
+        note: failed.length ? `${failed.length} of the marks could not be placed: ${failed[0]}` : undefined,
+      });
+      if (failed.length === 0) onSaved();
+    } catch (err) {
+      const message =
+        err instanceof ApiError && err.status === 403
+          ? `Only the engineers and leads of ${project.name} can save views in it.`
+          : err instanceof Error
+            ? err.message
+            : String(err);
+      setOutcome({ tone: 'error', message });
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3" aria-label="Save view">
+      <TextField label="View title" value={title} maxLength={191} onChange={(e) => setTitle(e.target.value)} placeholder="What does this view show?" />
+      <div className="flex flex-wrap items-end gap-3">
+        <SelectField
+          label="Save into project"
+          className="min-w-48 flex-1"
+          value={projectId}
+          onChange={(e) => {
+            setChosen(Number(e.target.value));
+            setOutcome(null);
+          }}
+        >
+          {eligible.map((p) => (
+            <option key={p.id} value={p.id}>
+              {p.name}
+            </option>
+          ))}
+        </SelectField>
+        <Button type="submit" disabled={busy}>
+          {busy ? 'Saving…' : 'Save view'}
+        </Button>
+      </div>
+      {outcome?.tone === 'error' && <Notice tone="error">{outcome.message}</Notice>}
+      {outcome?.tone === 'ok' && (
+        <Notice tone="ok">
+          Saved as{' '}
+          <Link to={paths.view(outcome.viewId)} className={linkClass} data-testid="saved-view-link">
+            {outcome.title}
+          </Link>
+          {outcome.note && <span className="block pt-1 text-danger">{outcome.note}</span>}
+        </Notice>
+      )}
+      <p className="text-xs text-mist-500">
+        Saves the settings, the visible window, the guides and {marks.length === 1 ? 'the pending mark' : `the ${marks.length} pending marks`} with a small picture of
+        the map. The recording is registered with the project first if it is not yet.
+      </p>
+    </form>
+  );
+}

@@ -4,56 +4,24 @@
  * a point mark with a text and saves the view into the demo project, registering nothing by hand; the
  * viewer then finds it in the project's views table and sees the painted snapshot and the mark.
  */
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { demoProject } from '../../seeds/demo-scenario';
-import { synthesiseDrive, synthesiseTacho } from '../../seeds/synthetic-drive';
-import { writeWav } from '../../workers/io/wav-writer';
-import { launchBrowser, screenshot, signIn } from './browser';
+import { canvasPixels, launchBrowser, screenshot, signIn } from './browser';
+import { runUpWav } from './run-up';
 
-const FS_HZ = 51200;
 const DURATION_S = 6;
-const rpmAt = (t: number) => 1000 + (8000 * t) / DURATION_S;
-const carrierAt = (t: number) => (rpmAt(t) < 5000 ? 8000 : 10000);
-
-function runUp(): Uint8Array {
-  const vibration = synthesiseDrive({
-    fsHz: FS_HZ,
-    durationS: DURATION_S,
-    rpm: rpmAt,
-    polePairs: 4,
-    carrierHz: carrierAt,
-    orders: [
-      { order: 8, amplitude: 0.05 },
-      { order: 48, amplitude: 0.03 },
-    ],
-    families: [
+const runUp = () =>
+  runUpWav(
+    DURATION_S,
+    [
       { m: 1, n: 1, amplitude: 0.02 },
       { m: 1, n: -1, amplitude: 0.02 },
     ],
-    noiseRms: 0.002,
-    seed: 11,
-  });
-  const tacho = synthesiseTacho(FS_HZ, DURATION_S, rpmAt, 60).map((v) => 0.9 * v);
-  return writeWav([vibration, tacho], { sampleRateHz: FS_HZ, bits: 24 });
-}
+    11,
+  );
 
-/** Size, share of opaque pixels and a count of distinct colours of a canvas. */
-function canvasPixels(page: Page, testId: string) {
-  return page.evaluate((id) => {
-    const canvas = document.querySelector<HTMLCanvasElement>(`[data-testid="${id}"]`);
-    if (!canvas || canvas.width === 0) return { width: 0, height: 0, opaque: 0, colours: 0 };
-    const { width, height } = canvas;
-    const d = canvas.getContext('2d')!.getImageData(0, 0, width, height).data;
-    let opaque = 0;
-    const colours = new Set<number>();
-    for (let i = 0; i < d.length; i += 4) {
-      if (d[i + 3] === 255) opaque++;
-      if (i % 64 === 0) colours.add((d[i] << 16) | (d[i + 1] << 8) | d[i + 2]);
-    }
-    return { width, height, opaque: opaque / (width * height), colours: colours.size };
-  }, testId);
-}
+
 
 describe('saving a view from the Bench (browser)', () => {
   const baseUrl = inject('baseUrl');

@@ -8,38 +8,22 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { synthesiseDrive, synthesiseTacho } from '../../seeds/synthetic-drive';
-import { writeWav } from '../../workers/io/wav-writer';
 import { ARTEFACTS_DIR, launchBrowser, screenshot, signIn } from './browser';
+import { FS_HZ, runUpTimeline, runUpWav } from './run-up';
 
-const FS_HZ = 51200;
 const DURATION_S = 12;
-const rpmAt = (t: number) => 1000 + (8000 * t) / DURATION_S;
-const carrierAt = (t: number) => (rpmAt(t) < 5000 ? 8000 : 10000);
-const SHIFT_S = ((5000 - 1000) / 8000) * DURATION_S;
-
-function runUp(): Uint8Array {
-  const vibration = synthesiseDrive({
-    fsHz: FS_HZ,
-    durationS: DURATION_S,
-    rpm: rpmAt,
-    polePairs: 4,
-    carrierHz: carrierAt,
-    orders: [
-      { order: 8, amplitude: 0.05 },
-      { order: 48, amplitude: 0.03 },
-    ],
-    families: [
+const { rpmAt, shiftS: SHIFT_S } = runUpTimeline(DURATION_S);
+const runUp = () =>
+  runUpWav(
+    DURATION_S,
+    [
       { m: 1, n: 1, amplitude: 0.02 },
       { m: 1, n: -1, amplitude: 0.02 },
       { m: 2, n: 0, amplitude: 0.01 },
     ],
-    noiseRms: 0.002,
-    seed: 7,
-  });
-  const tacho = synthesiseTacho(FS_HZ, DURATION_S, rpmAt, 60).map((v) => 0.9 * v);
-  return writeWav([vibration, tacho], { sampleRateHz: FS_HZ, bits: 24 });
-}
+    7,
+  );
+
 
 /** Share of painted (opaque) pixels, and how many distinct colours, of a canvas. */
 function canvasPixels(page: Page, testId: string): Promise<{ width: number; height: number; opaque: number; strong: number; colours: number }> {

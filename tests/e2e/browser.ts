@@ -35,3 +35,20 @@ export async function screenshot(page: Page, name: string) {
   mkdirSync(ARTEFACTS_DIR, { recursive: true });
   await page.screenshot({ path: path.join(ARTEFACTS_DIR, `${name}.png`), fullPage: true });
 }
+
+/** Size, share of opaque pixels and a count of distinct colours of a canvas found by its test id. */
+export function canvasPixels(page: Page, testId: string) {
+  return page.evaluate((id) => {
+    const canvas = document.querySelector<HTMLCanvasElement>(`[data-testid="${id}"]`);
+    if (!canvas || canvas.width === 0) return { width: 0, height: 0, opaque: 0, colours: 0 };
+    const { width, height } = canvas;
+    const d = canvas.getContext('2d')!.getImageData(0, 0, width, height).data;
+    let opaque = 0;
+    const colours = new Set<number>();
+    for (let i = 0; i < d.length; i += 4) {
+      if (d[i + 3] === 255) opaque++;
+      if (i % 64 === 0) colours.add((d[i] << 16) | (d[i + 1] << 8) | d[i + 2]);
+    }
+    return { width, height, opaque: opaque / (width * height), colours: colours.size };
+  }, testId);
+}

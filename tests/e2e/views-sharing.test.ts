@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { SNAPSHOT_CONTENT_TYPE, type SnapshotHeader } from '../../server/schemas/views';
 import { encodeSnapshot, quantiseDb } from '../../server/services/snapshot-codec';
 import { demoProject } from '../../seeds/demo-scenario';
-import { launchBrowser, screenshot, signIn } from './browser';
+import { canvasPixels, launchBrowser, screenshot, signIn } from './browser';
 
 const W = 480;
 const H = 240;
@@ -142,22 +142,6 @@ async function seedView(page: Page, title: string) {
   return { projectId, viewId, markId: mark.body.mark.id as number };
 }
 
-/** Size, share of opaque pixels and a count of distinct colours of a canvas. */
-function canvasPixels(page: Page, testId: string) {
-  return page.evaluate((id) => {
-    const canvas = document.querySelector<HTMLCanvasElement>(`[data-testid="${id}"]`);
-    if (!canvas || canvas.width === 0) return { width: 0, height: 0, opaque: 0, colours: 0 };
-    const { width, height } = canvas;
-    const d = canvas.getContext('2d')!.getImageData(0, 0, width, height).data;
-    let opaque = 0;
-    const colours = new Set<number>();
-    for (let i = 0; i < d.length; i += 4) {
-      if (d[i + 3] === 255) opaque++;
-      if (i % 64 === 0) colours.add((d[i] << 16) | (d[i + 1] << 8) | d[i + 2]);
-    }
-    return { width, height, opaque: opaque / (width * height), colours: colours.size };
-  }, testId);
-}
 
 async function expectPainted(page: Page) {
   await expect.poll(async () => (await canvasPixels(page, 'view-snapshot')).opaque, { timeout: 15_000 }).toBe(1);

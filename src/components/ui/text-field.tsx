@@ -1,4 +1,5 @@
-import { forwardRef, useId, type InputHTMLAttributes } from 'react';
+import { forwardRef, type InputHTMLAttributes } from 'react';
+import { FieldFrame } from './field-frame';
 
 interface TextFieldProps extends InputHTMLAttributes<HTMLInputElement> {
   label: string;
@@ -7,35 +8,17 @@ interface TextFieldProps extends InputHTMLAttributes<HTMLInputElement> {
 }
 
 export const TextField = forwardRef<HTMLInputElement, TextFieldProps>(function TextField(
-  { label, error, hint, className = '', ...props },
+  { label, error, hint, className, ...props },
   ref,
 ) {
-  const id = useId();
-  const messageId = `${id}-message`;
   return (
-    <div className={`flex flex-col gap-1.5 ${className}`}>
-      <label htmlFor={id} className="text-sm font-medium text-mist-300">
-        {label}
-      </label>
-      <input
-        ref={ref}
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error || hint ? messageId : undefined}
-        className={`rounded-md border bg-ink-900 px-3 py-2 text-sm text-mist-100 placeholder:text-mist-500 ${
-          error ? 'border-danger' : 'border-ink-700 focus:border-accent'
-        }`}
-        {...props}
-      />
-      {error ? (
-        <p id={messageId} className="text-xs text-danger" role="alert">
-          {error}
-        </p>
-      ) : hint ? (
-        <p id={messageId} className="text-xs text-mist-500">
-          {hint}
-        </p>
-      ) : null}
-    </div>
+    <FieldFrame
+      label={label}
+      error={error}
+      hint={hint}
+      className={className}
+      placeholderClass="placeholder:text-mist-500"
+      control={(field) => <input ref={ref} {...field} {...props} />}
+    />
   );
 });

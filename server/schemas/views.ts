@@ -99,6 +99,21 @@ export const trackRef = z.discriminatedUnion('kind', [
   z.looseObject({ kind: z.literal('band'), centreHz: z.number().positive() }),
 ]);
 
+/**
+ * A carrier guide as the Bench holds it, so a view reopens on the Bench with the same guides: the
+ * detected carrier (which follows its shifts) or a typed centre, and its families m·fc + n·fe
+ * (per 'electrical') or m·fc + k·fr (per 'shaft').
+ */
+export const carrierGuideState = z.looseObject({
+  source: z.enum(['typed', 'detected']),
+  centreHz: z.number().min(0).max(1_000_000),
+  per: z.enum(['electrical', 'shaft']).default('electrical'),
+  families: z
+    .array(z.looseObject({ m: z.number().int().min(1).max(50), n: z.number().int().min(-100).max(100) }))
+    .max(50, { error: 'At most 50 families on one carrier.' }),
+  visible: z.boolean().default(true),
+});
+
 export const viewStateV1 = z.looseObject({
   stateVersion: z.literal(1),
   processing: processingSettings,
@@ -108,6 +123,10 @@ export const viewStateV1 = z.looseObject({
   carrierSchedule: z.array(carrierSegment).max(200, { error: 'At most 200 segments.' }).default([]),
   polePairs: z.number().int().min(1).max(64).nullable().default(null),
   selectedTracks: z.array(trackRef).max(50, { error: 'At most 50 tracks.' }).default([]),
+  /** Added after the first views were saved: absent in those, which reopen with the carriers of `guides`. */
+  carrierGuides: z.array(carrierGuideState).max(20, { error: 'At most 20 carrier guides.' }).optional(),
+  /** Whether `polePairs` was typed on the Bench or inferred from the sideband spacing. */
+  polePairsSource: z.enum(['typed', 'inferred']).optional(),
 });
 export type ViewStateV1 = z.infer<typeof viewStateV1>;
 

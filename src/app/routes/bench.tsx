@@ -1,21 +1,29 @@
 import { useCallback, useEffect, useRef } from 'react';
-import { useSearchParams } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router-dom';
 import { Notice } from '../../components/ui/notice';
+import { linkClass } from '../../components/ui/styles';
+import { paths } from '../../config/paths';
 import { BenchPanel } from '../../features/bench/components/bench-panel';
 import { DropZone } from '../../features/bench/components/drop-zone';
 import { LibraryPanel } from '../../features/bench/components/library-panel';
 import { SampleRateForm } from '../../features/bench/components/sample-rate-form';
 import { Workbench } from '../../features/bench/components/workbench';
 import { useRecordingReader } from '../../features/bench/hooks/use-recording-reader';
+import { useViewOnBench } from '../../features/bench/hooks/use-view-on-bench';
 import type { LibraryEntry } from '../../features/library/library-store';
 import { warmPool } from '../../lib/workers/analysis-pool';
 
-/** `?open=<fingerprint>` opens a library entry; `?project=<id>` preselects the project to register with. */
+/**
+ * `?open=<fingerprint>` opens a library entry; `?view=<id>` starts it from a saved view of that recording
+ * (its settings, guides, zoom and marks); `?project=<id>` preselects the project to register with.
+ */
 export function BenchPage() {
   const [params, setParams] = useSearchParams();
   const openParam = params.get('open');
   const projectParam = params.get('project') ?? '';
   const preferredProjectId = /^[1-9]\d*$/.test(projectParam) ? Number(projectParam) : null;
+  const viewParam = params.get('view') ?? '';
+  const viewId = /^[1-9]\d*$/.test(viewParam) ? Number(viewParam) : null;
   // The fingerprint last asked for, so the URL following an open does not start a second read.
   const requested = useRef<string | null>(null);
 
@@ -25,6 +33,8 @@ export function BenchPage() {
       setParams(
         (prev) => {
           const next = new URLSearchParams(prev);
+          // a saved view belongs to its recording: opening another one (or none) leaves it
+          if (fingerprint !== prev.get('open')) next.delete('view');
           if (fingerprint) next.set('open', fingerprint);
           else next.delete('open');
           return next;
@@ -39,6 +49,7 @@ export function BenchPage() {
 
   const reader = useRecordingReader((entry: LibraryEntry) => setOpenParam(entry.fingerprint));
   const { open, reading, prompt, notice, openFromLibrary } = reader;
+  const fromView = useViewOnBench(viewId, open?.entry.fingerprint ?? null);
 
   useEffect(() => {
     if (!openParam || openParam === requested.current) return;
@@ -84,8 +95,35 @@ export function BenchPage() {
   return (
     <div className="mx-auto max-w-[150rem] px-4 py-4">
       <h1 className="sr-only">Bench</h1>
-      {open ? (
-        <Workbench key={open.entry.fingerprint} recording={open} intake={intake} preferredProjectId={preferredProjectId} onClose={close} />
+      {open && fromView.kind === 'loading' ? (
+        <p className="px-2 py-8 text-sm text-mist-500" data-testid="bench-view-loading">
+          Opening the saved view…
+        </p>
+      ) : open ? (
+        <>
+          {fromView.kind === 'unusable' && (
+            <div className="mb-4">
+              <Notice tone="error">{fromView.message}</Notice>
+            </div>
+          )}
+          {fromView.kind === 'ready' && (
+            <p className="mb-3 text-sm text-mist-300" data-testid="bench-from-view">
+              Started from the saved view{' '}
+              <Link to={paths.view(fromView.value.view.id)} className={linkClass}>
+                {fromView.value.view.title}
+              </Link>
+              : its settings, guides, zoom and marks.
+            </p>
+          )}
+          <Workbench
+            key={`${open.entry.fingerprint}:${fromView.kind === 'ready' ? fromView.value.view.id : ''}`}
+            recording={open}
+            intake={intake}
+            preferredProjectId={preferredProjectId}
+            fromView={fromView.kind === 'ready' ? fromView.value : undefined}
+            onClose={close}
+          />
+        </>
       ) : (
         <div className="grid items-start gap-4 lg:grid-cols-[17.5rem_minmax(0,1fr)]">
           <div className="flex flex-col gap-4">{intake}</div>

@@ -7,7 +7,7 @@ import { alignTracks, averagedOver, bandLevels, binGains, computeTracks, frameAt
 import { baseName, csvText, downloadCsv, round } from '../analysis/export';
 import type { MapPower } from '../hooks/use-map-computation';
 import { uniqueLabels, type GuideLine } from '../map/guides';
-import type { LevelReference } from '../map/level-reference';
+import { dbUnit, type LevelReference } from '../map/level-reference';
 import type { SpeedRaster } from '../map/speed-raster';
 import { ticks } from '../map/axis-ticks';
 import type { BenchPointer, BenchStores } from '../state/bench-stores';
@@ -38,7 +38,6 @@ export interface DockProps {
   pinnedTimeS: number | null;
 }
 
-const dbUnit = (w: Weighting) => (w === 'Z' ? 'dB' : `dB(${w})`);
 
 /** The dock below the map: tracks of the tracked guides, the spectrum slice at the pointer, the band levels. */
 export const Dock = memo(function Dock(p: DockProps) {

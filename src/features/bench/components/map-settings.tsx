@@ -43,15 +43,28 @@ function defaultChannel(setup: ChannelSetup[]): number {
   return (setup.find((c) => c.quantity !== 'tacho' && c.quantity !== 'speed') ?? setup[0])?.index ?? 0;
 }
 
-export function useMapSettings(frames: number, setup: ChannelSetup[]) {
-  const [channel, setChannel] = useState(() => defaultChannel(setup));
-  const [windowName, setWindowName] = useState<WindowName>('hann');
-  const [blockSize, setBlockSize] = useState(() => defaultBlockSize(frames));
-  const [overlap, setOverlap] = useState(DEFAULT_OVERLAP);
-  const [weighting, setWeighting] = useState<Weighting>('Z');
-  const [topText, setTopText] = useState<string | null>(null);
-  const [rangeText, setRangeText] = useState(String(DEFAULT_RANGE_DB));
-  const [colours, setColours] = useState<ColourScaleName>('ember');
+/** Settings a saved view brings along; the rest start at their defaults. */
+export interface InitialMapSettings {
+  channelIndex: number;
+  window: WindowName;
+  blockSize: number;
+  overlap: number;
+  weighting: Weighting;
+  colours: ColourScaleName;
+  topDb: number;
+  rangeDb: number;
+}
+
+export function useMapSettings(frames: number, setup: ChannelSetup[], initial?: InitialMapSettings) {
+  const [channel, setChannel] = useState(() => (initial && setup.some((c) => c.index === initial.channelIndex) ? initial.channelIndex : defaultChannel(setup)));
+  const [windowName, setWindowName] = useState<WindowName>(initial?.window ?? 'hann');
+  const [blockSize, setBlockSize] = useState(() => (initial && initial.blockSize <= Math.max(MIN_BLOCK, frames) ? initial.blockSize : defaultBlockSize(frames)));
+  const [overlap, setOverlap] = useState(initial?.overlap ?? DEFAULT_OVERLAP);
+  const [weighting, setWeighting] = useState<Weighting>(initial?.weighting ?? 'Z');
+  // a saved view keeps its level range: its top is a typed one here
+  const [topText, setTopText] = useState<string | null>(initial ? String(initial.topDb) : null);
+  const [rangeText, setRangeText] = useState(String(initial?.rangeDb ?? DEFAULT_RANGE_DB));
+  const [colours, setColours] = useState<ColourScaleName>(initial?.colours ?? 'ember');
   return {
     channel,
     setChannel,
@@ -155,7 +168,7 @@ export function MapSettingsBar({
       <Setting label="Overlap">
         {(id) => (
           <select id={id} className={`${smallSelectClass} font-mono`} value={s.overlap} onChange={(e) => s.setOverlap(Number(e.target.value))}>
-            {overlaps.map((o) => (
+            {(overlaps.includes(s.overlap) ? overlaps : [...overlaps, s.overlap].sort((a, b) => a - b)).map((o) => (
               <option key={o} value={o}>
                 {Math.round(o * 100)} %
               </option>

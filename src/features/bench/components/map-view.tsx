@@ -260,12 +260,12 @@ export function MapView(props: Props) {
         line(Math.round(e) + 0.5, Math.round(f) + 0.5, Math.round(h) + 0.5, Math.round(i) + 0.5);
       }
     }
-    // pending marks: a dashed ring or box with its number
+    // marks: a ring or box with its number, dashed while waiting to be saved
     ctx.lineWidth = 1.75 * dpr;
     ctx.font = `600 ${11 * dpr}px ${FONT}`;
     ctx.textBaseline = 'alphabetic';
     p.marks.forEach((m, i) => {
-      ctx.setLineDash([4 * dpr, 3 * dpr]);
+      ctx.setLineDash(m.saved ? [] : [4 * dpr, 3 * dpr]);
       let labelAt: [number, number];
       if (m.kind === 'point') {
         const [x, y] = g.toScreen(m.x, m.f);
@@ -293,9 +293,10 @@ export function MapView(props: Props) {
       ctx.setLineDash([]);
       ctx.lineWidth = 3 * dpr;
       ctx.strokeStyle = '#0d1117';
-      ctx.strokeText(String(i + 1), labelAt[0], labelAt[1]);
+      const label = String(m.number ?? i + 1);
+      ctx.strokeText(label, labelAt[0], labelAt[1]);
       ctx.fillStyle = '#f0a93e';
-      ctx.fillText(String(i + 1), labelAt[0], labelAt[1]);
+      ctx.fillText(label, labelAt[0], labelAt[1]);
     });
     const d = drag.current;
     if (d && d.box && d.moved) {

@@ -3,7 +3,7 @@ import { useState, type FormEvent } from 'react';
 import { Link } from 'react-router-dom';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import { registerRecordingBody } from '../../../../server/schemas/recordings';
-import { createViewBody, SNAPSHOT_CONTENT_TYPE, snapshotHeader, type Mark, type SnapshotHeader, type ViewDetail } from '../../../../server/schemas/views';
+import { createViewBody, SNAPSHOT_CONTENT_TYPE, snapshotHeader, updateViewBody, type Mark, type SnapshotHeader, type ViewDetail } from '../../../../server/schemas/views';
 import { encodeSnapshot } from '../../../../server/services/snapshot-codec';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
@@ -12,10 +12,12 @@ import { TextField } from '../../../components/ui/text-field';
 import { linkClass } from '../../../components/ui/styles';
 import { paths } from '../../../config/paths';
 import { api, ApiError, type ApiErrorBody } from '../../../lib/api-client';
+import { useMe } from '../../auth/api/auth';
 import { useProjects } from '../../projects/api/projects';
 import { projectRecordingsQuery, useRegisterRecording } from '../../projects/api/recordings';
 import { viewKeys } from '../../views/api/keys';
 import type { LibraryEntry } from '../../library/library-store';
+import type { ViewOnBench } from '../views/view-restore';
 import { markBody, type BenchMark } from '../views/view-snapshot';
 import { setupProblems } from './register-form';
 
@@ -53,9 +55,23 @@ const issuesText = (issues: { path: PropertyKey[]; message: string }[]) =>
     .map((i) => (i.path.length ? `${i.path.map(String).join('.')}: ${i.message}` : i.message))
     .join(' ');
 
+/** Places the pending marks on a view; the messages of those the server refused. */
+async function placeMarks(viewId: number, marks: BenchMark[], swapped: boolean): Promise<string[]> {
+  const failed: string[] = [];
+  for (const m of marks) {
+    try {
+      await api.post<{ mark: Mark }>(`/views/${viewId}/marks`, markBody(m, swapped));
+    } catch (err) {
+      failed.push(err instanceof Error ? err.message : String(err));
+    }
+  }
+  return failed;
+}
+
 /**
  * Saves what the Bench shows as a view of a project: registers the recording there first when the
  * project does not have it yet, then creates the view, uploads its snapshot and places the pending marks.
+ * Opened from a saved view, it can instead save the changes into that view (its author or a lead).
  */
 export function SaveViewForm({
   entry,
@@ -63,6 +79,7 @@ export function SaveViewForm({
   preferredProjectId,
   capture,
   marks,
+  fromView,
   onSaved,
 }: {
   entry: LibraryEntry;
@@ -71,9 +88,13 @@ export function SaveViewForm({
   /** null while there is no map to save */
   capture: () => ViewCapture | string;
   marks: BenchMark[];
+  fromView?: ViewOnBench;
   onSaved: () => void;
 }) {
   const qc = useQueryClient();
+  const { data: me } = useMe();
+  // the version of the view the Bench was opened from, moved on by each save into it
+  const [fromVersion, setFromVersion] = useState(fromView?.view.version ?? 0);
   const { data: projects, isPending, error } = useProjects();
   const register = useRegisterRecording();
   const [title, setTitle] = useState('');
@@ -88,6 +109,9 @@ export function SaveViewForm({
     return <p className="text-sm text-mist-500">You are not an engineer or lead in any open project, so you cannot save views yet.</p>;
   }
   const preferred = eligible.find((p) => p.id === preferredProjectId);
+  const fromRole = fromView ? projects.find((p) => p.id === fromView.view.projectId)?.role : undefined;
+  const mayUpdate =
+    fromView !== undefined && !fromView.view.archived && (fromRole === 'lead' || (fromRole === 'engineer' && fromView.view.author?.id === me?.id));
   const projectId = chosen ?? preferred?.id ?? eligible[0].id;
   const project = eligible.find((p) => p.id === projectId)!;
 
@@ -134,14 +158,7 @@ export function SaveViewForm({
       const body = createViewBody.parse({ title, recordingId, state: taken.state });
       const { view } = await api.post<{ view: ViewDetail }>(`/projects/${project.id}/views`, body);
       await putSnapshot(view.id, encodeSnapshot(header.data, taken.map));
-      const failed: string[] = [];
-      for (const m of marks) {
-        try {
-          await api.post<{ mark: Mark }>(`/views/${view.id}/marks`, markBody(m, taken.swapped));
-        } catch (err) {
-          failed.push(err instanceof Error ? err.message : String(err));
-        }
-      }
+      const failed = await placeMarks(view.id, marks, taken.swapped);
       await qc.invalidateQueries({ queryKey: viewKeys.all });
       setOutcome({
         tone: 'ok',
@@ -154,6 +171,61 @@ export function SaveViewForm({
       const message =
         err instanceof ApiError && err.status === 403
           ? `Only the engineers and leads of ${project.name} can save views in it.`
+          : err instanceof Error
+            ? err.message
+            : String(err);
+      setOutcome({ tone: 'error', message });
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  const saveChanges = async () => {
+    if (!fromView) return;
+    setOutcome(null);
+    const taken = capture();
+    if (typeof taken === 'string') {
+      setOutcome({ tone: 'error', message: taken });
+      return;
+    }
+    const saved = fromView.restore;
+    // The view's marks sit in its axes: a save that turned or swapped them would misplace every one.
+    const against = (taken.state as { processing?: { against?: string } }).processing?.against;
+    if (taken.swapped !== saved.swapped || against !== saved.against) {
+      setOutcome({
+        tone: 'error',
+        message: `The view's marks were placed on the map against ${saved.against}${saved.swapped ? ' with the axes swapped' : ''}; show it that way to save into the view, or save a new view.`,
+      });
+      return;
+    }
+    const header = snapshotHeader.safeParse(taken.header);
+    if (!header.success) {
+      setOutcome({ tone: 'error', message: `The snapshot cannot be made: ${issuesText(header.error.issues)}` });
+      return;
+    }
+    const body = updateViewBody.safeParse({ version: fromVersion, ...(title.trim() ? { title } : {}), state: taken.state });
+    if (!body.success) {
+      setOutcome({ tone: 'error', message: issuesText(body.error.issues) });
+      return;
+    }
+    setBusy(true);
+    try {
+      const { view } = await api.patch<{ view: ViewDetail }>(`/views/${fromView.view.id}`, body.data);
+      setFromVersion(view.version);
+      await putSnapshot(view.id, encodeSnapshot(header.data, taken.map));
+      const failed = await placeMarks(view.id, marks, taken.swapped);
+      await qc.invalidateQueries({ queryKey: viewKeys.all });
+      setOutcome({
+        tone: 'ok',
+        viewId: view.id,
+        title: view.title,
+        note: failed.length ? `${failed.length} of the marks could not be placed: ${failed[0]}` : undefined,
+      });
+      if (failed.length === 0) onSaved();
+    } catch (err) {
+      const message =
+        err instanceof ApiError && err.status === 409
+          ? 'Someone saved this view since you opened it here. Open it again from its page to see their changes, or save a new view.'
           : err instanceof Error
             ? err.message
             : String(err);
@@ -183,9 +255,17 @@ export function SaveViewForm({
           ))}
         </SelectField>
         <Button type="submit" disabled={busy}>
-          {busy ? 'Saving…' : 'Save view'}
+          {busy ? 'Saving…' : fromView ? 'Save as a new view' : 'Save view'}
         </Button>
       </div>
+      {fromView && mayUpdate && (
+        <div className="flex flex-wrap items-center gap-3 border-t border-ink-800 pt-3">
+          <Button type="button" variant="quiet" disabled={busy} onClick={() => void saveChanges()}>
+            Save changes to “{fromView.view.title}”
+          </Button>
+          <span className="text-xs text-mist-500">Replaces its settings and picture{title.trim() ? ' and its title' : ''}; its marks and threads stay.</span>
+        </div>
+      )}
       {outcome?.tone === 'error' && <Notice tone="error">{outcome.message}</Notice>}
       {outcome?.tone === 'ok' && (
         <Notice tone="ok">

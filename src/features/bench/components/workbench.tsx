@@ -6,15 +6,15 @@ import { Notice } from '../../../components/ui/notice';
 import { TextField } from '../../../components/ui/text-field';
 import { MARK_TEXT_MAX } from '../../../../server/schemas/views';
 import { formatHz, formatSeconds } from '../../../lib/format';
-import { frameAt, frameAtRpm, frameTimes as frameTimesOf } from '../analysis/spectra';
+import { computeTracks, frameAt, frameAtRpm, frameTimes as frameTimesOf } from '../analysis/spectra';
 import { useFindings, useSpeedMap } from '../hooks/use-analysis';
 import { useChannelSetup } from '../hooks/use-channel-setup';
 import { useMapComputation } from '../hooks/use-map-computation';
 import type { OpenRecording } from '../hooks/use-recording-reader';
 import { defaultSpeedSource, useSpeedCurve, type SpeedSource } from '../hooks/use-speed-curve';
 import { colourLut } from '../map/colour-scales';
-import { defaultFamilies, guidesReducer, initialGuides, resolveLines } from '../map/guides';
-import { levelReference } from '../map/level-reference';
+import { defaultFamilies, guidesReducer, initialGuides, resolveLines, uniqueLabels } from '../map/guides';
+import { dbUnit, levelReference } from '../map/level-reference';
 import type { MapRaster } from '../map/map-raster';
 import { speedStep } from '../map/speed-raster';
 import { clampViewport, centreOf, fullView, panScreen, zoomAbout, type Extents, type Viewport } from '../map/viewport';
@@ -29,6 +29,8 @@ import { DEFAULT_RANGE_DB, MapSettingsBar, useMapSettings, useSettledValue } fro
 import type { MapMode, MarkPlace } from './map-view';
 import { SaveViewForm, type ViewCapture } from './save-view-form';
 import { benchViewState, quantiseVisible, snapshotHeaderOf, type BenchMark, type BenchViewInputs } from '../views/view-snapshot';
+import type { ViewOnBench } from '../views/view-restore';
+import { PendingMarks, SavedMarks, useSavedMarksOnMap } from './bench-marks';
 import { RegisterForm } from './register-form';
 import { ShortcutsDialog, useShortcuts } from './shortcuts';
 import { SpeedSourceForm, type PoleChoice } from './speed-source';
@@ -53,13 +55,17 @@ export function Workbench({
   recording,
   intake,
   preferredProjectId,
+  fromView,
   onClose,
 }: {
   recording: OpenRecording;
   intake: ReactNode;
   preferredProjectId: number | null;
+  /** A saved view of this recording to start from (`?view=`): its settings, guides, zoom and marks */
+  fromView?: ViewOnBench;
   onClose: () => void;
 }) {
+  const restore = fromView?.restore;
   const { header, samples: channelSamples, channelIndices } = recording.decoded;
   const fsHz = header.sampleRateHz;
   const { setup, change, flush, saveState } = useChannelSetup(recording.entry.fingerprint, recording.entry.setup);
@@ -68,12 +74,12 @@ export function Workbench({
   // Channels and speed
   const [speedChoice, setSpeedChoice] = useState<SpeedSource | null>(null);
   const speedSource = speedChoice ?? defaultSpeedSource(setup);
-  const [poles, setPoles] = useState<PoleChoice>({ mode: 'inferred' });
+  const [poles, setPoles] = useState<PoleChoice>(restore?.poles ?? { mode: 'inferred' });
   const channels = useMemo(() => ({ indices: channelIndices, samples: channelSamples }), [channelIndices, channelSamples]);
   const speed = useSpeedCurve(speedSource, setup, channels, fsHz, header.durationS);
 
   // The map
-  const s = useMapSettings(header.frames, setup);
+  const s = useMapSettings(header.frames, setup, restore);
   const channelSetup = setup.find((c) => c.index === s.channel) ?? setup[0];
   const at = channelIndices.indexOf(channelSetup?.index ?? -1);
   const samples = at >= 0 ? channelSamples[at] : null;
@@ -107,12 +113,12 @@ export function Workbench({
   const frameTimes = useMemo(() => (layout && layout.frames > 0 ? frameTimesOf(layout) : null), [layout]);
   const frameRpm = useMemo(() => (speed.kind === 'done' && frameTimes ? rpmAtTimes(speed.curve, frameTimes) : null), [speed, frameTimes]);
   const rpmStep = useMemo(() => (frameRpm ? speedStep(frameRpm) : 50), [frameRpm]);
-  const [againstChoice, setAgainst] = useState<'time' | 'speed'>('time');
+  const [againstChoice, setAgainst] = useState<'time' | 'speed'>(restore?.against ?? 'time');
   const against = againstChoice === 'speed' && frameRpm ? 'speed' : 'time';
   const speedMap = useSpeedMap(map.power, done, frameRpm, rpmStep, s.weighting, reference.refRms, against === 'speed');
   const speedRaster = speedMap.kind === 'done' ? speedMap.value : null;
   const typedPoles = poles.mode === 'typed' && Number.isInteger(poles.value) && poles.value >= 1 ? poles.value : null;
-  const [guides, dispatch] = useReducer(guidesReducer, initialGuides);
+  const [guides, dispatch] = useReducer(guidesReducer, restore?.guides ?? initialGuides);
   const orderKs = guides.orders.filter((o) => !o.hidden).map((o) => o.order).join(',');
   const findings = useFindings(map.power, done, frameRpm, s.windowName, enbwBins, typedPoles, orderKs);
   const report = findings.kind === 'done' ? findings.value : null;
@@ -132,8 +138,10 @@ export function Workbench({
     [raster, layout, against, rpmStep],
   );
   const extentsKey = extents ? `${against}:${extents.x.join(',')}:${extents.f.join(',')}` : '';
-  // Another map of the same span (a new window, colours, calibration) keeps the view; another span starts whole.
+  // Another map of the same span (a new window, colours, calibration) keeps the view; another span starts
+  // whole. A saved view's zoom waits for the first map against the same axis (speed comes after time).
   const viewKey = useRef('');
+  const savedZoom = useRef(restore?.viewport ?? null);
   useEffect(() => {
     if (!extents) {
       stores.viewport.set(null);
@@ -141,7 +149,9 @@ export function Workbench({
       return;
     }
     const v = stores.viewport.get();
-    stores.viewport.set(v && viewKey.current === extentsKey ? clampViewport(v, extents) : fullView(extents));
+    const zoom = savedZoom.current && against === restore?.against ? savedZoom.current : null;
+    if (zoom) savedZoom.current = null;
+    stores.viewport.set(zoom ? clampViewport(zoom, extents) : v && viewKey.current === extentsKey ? clampViewport(v, extents) : fullView(extents));
     viewKey.current = extentsKey;
   }, [extentsKey]);
   const setView = useCallback(
@@ -151,7 +161,7 @@ export function Workbench({
     [extents, stores],
   );
 
-  const [swapped, setSwapped] = useState(false);
+  const [swapped, setSwapped] = useState(restore?.swapped ?? false);
   const [mode, setMode] = useState<MapMode>('pan');
   const [pinnedTimeS, setPinnedTimeS] = useState<number | null>(null);
   const [help, setHelp] = useState(false);
@@ -167,6 +177,8 @@ export function Workbench({
     },
     [markText],
   );
+  const savedMarks = useSavedMarksOnMap(fromView, against);
+  const shownMarks = useMemo(() => [...savedMarks.onMap, ...marks], [savedMarks.onMap, marks]);
   const pinnedX = pinnedTimeS === null ? null : against === 'time' ? pinnedTimeS : layout && frameRpm ? frameRpm[frameAt(layout, pinnedTimeS)] : null;
 
   const probe = useCallback(
@@ -271,6 +283,14 @@ export function Workbench({
     modal: help,
   });
 
+  // The dock's tracks of the selected lines, for the snapshot (computed once, when the view is saved).
+  const tracksForSnapshot = () => {
+    const selected = lines.filter((l) => l.selected);
+    if (!done || !map.power || selected.length === 0) return null;
+    const series = computeTracks(selected, lines, map.power.power, map.power.layout, s.windowName, enbwBins, against, frameRpm, rpmStep, s.weighting, reference.refRms);
+    return { series, names: uniqueLabels(selected), unit: `${dbUnit(s.weighting)} re ${reference.label}` };
+  };
+
   const capture = (): ViewCapture | string => {
     const view = stores.viewport.get();
     if (!raster || !view || !layout) return 'There is no map to save yet.';
@@ -293,15 +313,18 @@ export function Workbench({
       lines,
       report,
       polePairs,
+      polePairsSource: typedPoles !== null ? 'typed' : polePairs !== null ? 'inferred' : null,
       durationS: header.durationS,
+      tracks: tracksForSnapshot(),
     };
     const picture = quantiseVisible(raster, view, swapped, topDb, rangeDb);
     return { state: benchViewState(inputs), header: snapshotHeaderOf(inputs, picture), map: picture.map, swapped };
   };
 
   const markTools =
-    mode === 'mark' || marks.length > 0 ? (
-      <div className="flex flex-col gap-2 pl-16" data-testid="mark-tools">
+    mode === 'mark' || marks.length > 0 || savedMarks.onMap.length > 0 ? (
+      <div className="flex flex-col gap-3 pl-16" data-testid="mark-tools">
+        {fromView && <SavedMarks fromView={fromView} marks={savedMarks} against={restore?.against ?? against} />}
         <div className="flex flex-wrap items-end gap-3">
           <TextField
             label="Mark text"
@@ -315,29 +338,7 @@ export function Workbench({
             {mode === 'mark' ? 'Click the map for a point, Shift-drag for a box.' : 'Choose Add mark (m) to place more.'} Marks are saved with the view.
           </p>
         </div>
-        {marks.length > 0 && (
-          <ol className="flex flex-col gap-1 text-xs text-mist-300" data-testid="pending-marks">
-            {marks.map((m, i) => (
-              <li key={m.id} className="flex items-center gap-2">
-                <span className="font-mono text-accent">{i + 1}</span>
-                <span className="font-mono text-mist-500">
-                  {m.kind === 'point'
-                    ? `${m.x.toFixed(2)} ${against === 'speed' ? 'rpm' : 's'}, ${Math.round(m.f)} Hz`
-                    : `${m.x0.toFixed(2)}–${m.x1.toFixed(2)} ${against === 'speed' ? 'rpm' : 's'}, ${Math.round(m.f0)}–${Math.round(m.f1)} Hz`}
-                </span>
-                <span className="min-w-0 flex-1 truncate">{m.text || '(no text)'}</span>
-                <button
-                  type="button"
-                  className="rounded px-1.5 text-mist-500 hover:bg-ink-800 hover:text-mist-100"
-                  aria-label={`Remove mark ${i + 1}`}
-                  onClick={() => setMarks((ms) => ms.filter((x) => x.id !== m.id))}
-                >
-                  Remove
-                </button>
-              </li>
-            ))}
-          </ol>
-        )}
+        <PendingMarks marks={marks} firstNumber={savedMarks.onMap.length + 1} against={against} onChange={setMarks} />
       </div>
     ) : null;
 
@@ -432,7 +433,7 @@ export function Workbench({
             onPick={onPick}
             onPin={onPin}
             onZoom={zoom}
-            marks={marks}
+            marks={shownMarks}
             onMark={onMark}
             markTools={markTools}
             windowName={s.windowName}
@@ -502,9 +503,10 @@ export function Workbench({
               <SaveViewForm
                 entry={recording.entry}
                 setup={setup}
-                preferredProjectId={preferredProjectId}
+                preferredProjectId={fromView?.view.projectId ?? preferredProjectId}
                 capture={capture}
                 marks={marks}
+                fromView={fromView}
                 onSaved={() => setMarks([])}
               />
             </BenchPanel>

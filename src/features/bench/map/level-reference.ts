@@ -5,6 +5,7 @@
  */
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import { dbReference } from '../../../../workers/dsp/levels';
+import type { Weighting } from '../../../../workers/dsp/weighting';
 
 export interface LevelReference {
   /** Reference RMS value in the channel's unit */
@@ -30,3 +31,6 @@ export function levelReference(setup: Pick<ChannelSetup, 'quantity' | 'unit'>): 
   }
   return { refRms: 1, label: unit ? `1 ${unit}` : '1', unit };
 }
+
+/** The unit of a weighted level: dB, dB(A), dB(C). */
+export const dbUnit = (w: Weighting) => (w === 'Z' ? 'dB' : `dB(${w})`);

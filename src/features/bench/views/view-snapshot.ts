@@ -9,6 +9,7 @@ import type { z } from 'zod';
 import type { InverterReport } from '../../../../workers/dsp/inverter-analysis';
 import type { CreateMarkBody, SnapshotHeader, viewStateV1 } from '../../../../server/schemas/views';
 import { quantiseDb } from '../../../../server/services/snapshot-codec';
+import type { TrackSeries } from '../analysis/spectra';
 import type { GuideLine, GuidesState } from '../map/guides';
 import type { MapRaster } from '../map/map-raster';
 import type { Viewport } from '../map/viewport';
@@ -16,10 +17,16 @@ import type { Viewport } from '../map/viewport';
 export const SNAPSHOT_MAX_WIDTH = 1024;
 export const SNAPSHOT_MAX_HEIGHT = 768;
 
-/** A mark placed on the Bench's map, waiting for the view to be saved. */
-export type BenchMark =
+/** A mark on the Bench's map: waiting for the view to be saved, or one of the saved view's. */
+export type BenchMark = (
   | { id: number; kind: 'point'; x: number; f: number; text: string }
-  | { id: number; kind: 'box'; x0: number; x1: number; f0: number; f1: number; text: string };
+  | { id: number; kind: 'box'; x0: number; x1: number; f0: number; f1: number; text: string }
+) & {
+  /** A mark of the saved view the Bench was opened from (id is the server's); else one still to save */
+  saved?: true;
+  /** The number drawn beside it, when not its place in the list */
+  number?: number;
+};
 
 export type AxisOnScreen = {
   kind: 'time' | 'speed' | 'frequency';
@@ -119,7 +126,49 @@ export interface BenchViewInputs {
   lines: GuideLine[];
   report: InverterReport | null;
   polePairs: number | null;
+  /** Where polePairs came from: typed on the Bench, or inferred from the sideband spacing */
+  polePairsSource: 'typed' | 'inferred' | null;
   durationS: number;
+  /** The tracks of the selected lines as the dock computes them (computeTracks), with their names */
+  tracks: { series: TrackSeries[]; names: Map<string, string>; unit: string } | null;
+}
+
+/** Points per track in a snapshot: plenty for a chart a page wide, and the file stays small. */
+export const SNAPSHOT_TRACK_POINTS = 2000;
+
+type SnapshotTrack = NonNullable<SnapshotHeader['tracks']>[number];
+
+/**
+ * The tracks inside the visible x range (time or speed), each at most `limit` points: a longer track
+ * is cut into equal runs, each run one point at its middle with the highest level in it (so a narrow
+ * peak survives, as in quantiseVisible). Levels that are not finite become null (a gap).
+ */
+export function snapshotTracks(
+  series: TrackSeries[],
+  names: Map<string, string>,
+  unit: string,
+  range: [number, number],
+  limit = SNAPSHOT_TRACK_POINTS,
+): SnapshotTrack[] {
+  const round = (v: number) => Number(v.toPrecision(7));
+  return series.slice(0, 64).map((s) => {
+    const inside: number[] = [];
+    for (let i = 0; i < s.x.length; i++) if (s.x[i] >= range[0] && s.x[i] <= range[1]) inside.push(i);
+    const runs = Math.min(limit, inside.length);
+    const points: [number, number | null][] = [];
+    for (let r = 0; r < runs; r++) {
+      const a = Math.floor((r * inside.length) / runs);
+      const b = Math.floor(((r + 1) * inside.length) / runs);
+      let top = -Infinity;
+      for (let j = a; j < b; j++) {
+        const v = s.db[inside[j]];
+        if (Number.isFinite(v) && v > top) top = v;
+      }
+      const x = (s.x[inside[a]] + s.x[inside[b - 1]]) / 2;
+      points.push([round(x), Number.isFinite(top) ? Math.round(top * 100) / 100 : null]);
+    }
+    return { name: (names.get(s.line.id) ?? s.line.label).slice(0, 120), unit: unit.slice(0, 20), points };
+  });
 }
 
 const median = (xs: number[]) => {
@@ -167,6 +216,13 @@ export function benchViewState(p: BenchViewInputs): ViewStateInput {
     else if (l.guide.per === 'electrical') selectedTracks.push({ kind: 'family', m: l.guide.m, n: l.guide.n });
   }
   const axes = screenAxes(p.view, p.swapped, p.against);
+  const carrierGuides = p.guides.carriers.slice(0, 20).map((c) => ({
+    source: c.source,
+    centreHz: c.centreHz,
+    per: c.per,
+    families: c.families.slice(0, 50).map((f) => ({ m: f.m, n: f.n })),
+    visible: !c.hidden,
+  }));
   return {
     stateVersion: 1,
     processing: {
@@ -185,11 +241,13 @@ export function benchViewState(p: BenchViewInputs): ViewStateInput {
     guides: guides.slice(0, 200),
     carrierSchedule: carrierSchedule(p.report, p.guides, p.durationS),
     polePairs: p.polePairs,
+    ...(p.polePairs !== null && p.polePairsSource ? { polePairsSource: p.polePairsSource } : {}),
     selectedTracks: selectedTracks.slice(0, 50),
+    carrierGuides,
   };
 }
 
-/** The snapshot's header: the map's size and level range, the axes on screen, the findings summary. */
+/** The snapshot's header: the map's size and level range, the axes on screen, the tracks shown, the findings summary. */
 export function snapshotHeaderOf(
   p: BenchViewInputs,
   size: { width: number; height: number },
@@ -220,6 +278,7 @@ export function snapshotHeaderOf(
     dbTop: p.topDb,
     dbRange: p.rangeDb,
     axes: { x: axes.x, y: axes.y },
+    ...(p.tracks && p.tracks.series.length > 0 ? { tracks: snapshotTracks(p.tracks.series, p.tracks.names, p.tracks.unit, p.view.x) } : {}),
     findings: findings.slice(0, 200),
   };
 }

@@ -10,7 +10,7 @@ export const marksQuery = (viewId: number) =>
     queryFn: async () => (await api.get<{ marks: Mark[] }>(`/views/${viewId}/marks`)).marks,
   });
 
-export const useMarks = (viewId: number) => useQuery(marksQuery(viewId));
+export const useMarks = (viewId: number, enabled = true) => useQuery({ ...marksQuery(viewId), enabled });
 
 /** The project's views table counts marks and threads. */
 const refreshLists = (qc: QueryClient) => qc.invalidateQueries({ queryKey: [...viewKeys.all, 'list'] });

@@ -1,0 +1,146 @@
+import { useMemo } from 'react';
+import { Link } from 'react-router-dom';
+import { MARK_TEXT_MAX, type Mark } from '../../../../server/schemas/views';
+import { Notice } from '../../../components/ui/notice';
+import { linkClass } from '../../../components/ui/styles';
+import { paths } from '../../../config/paths';
+import { useMe } from '../../auth/api/auth';
+import { useProject } from '../../projects/api/projects';
+import { useMarks } from '../../views/api/marks';
+import { EditableMarkBody } from '../../views/components/mark-editor';
+import { MarkByline, MarkText } from '../../views/components/mark-card';
+import { markOnMap, type ViewOnBench } from '../views/view-restore';
+import type { BenchMark } from '../views/view-snapshot';
+import { smallInputClass } from './bench-panel';
+
+const placeText = (m: BenchMark, against: 'time' | 'speed') => {
+  const unit = against === 'speed' ? 'rpm' : 's';
+  const digits = against === 'speed' ? 0 : 2;
+  return m.kind === 'point'
+    ? `${m.x.toFixed(digits)} ${unit}, ${Math.round(m.f)} Hz`
+    : `${m.x0.toFixed(digits)}–${m.x1.toFixed(digits)} ${unit}, ${Math.round(m.f0)}–${Math.round(m.f1)} Hz`;
+};
+
+export interface SavedMarksOnMap {
+  /** The view's marks in the server's order, numbered as on the view page */
+  marks: Mark[];
+  /** Those the map can draw now: point and box marks, while the map is against the axis they were placed on */
+  onMap: BenchMark[];
+  isPending: boolean;
+  error: Error | null;
+}
+
+/** The marks of the view the Bench was opened from, and where they sit on the map. */
+export function useSavedMarksOnMap(fromView: ViewOnBench | undefined, against: 'time' | 'speed'): SavedMarksOnMap {
+  const query = useMarks(fromView?.view.id ?? 0, fromView !== undefined);
+  const marks = fromView ? query.data : undefined;
+  const savedAgainst = fromView?.restore.against;
+  const savedSwapped = fromView?.restore.swapped ?? false;
+  const onMap = useMemo(() => {
+    if (!marks || against !== savedAgainst) return [];
+    const out: BenchMark[] = [];
+    marks.forEach((m, i) => {
+      const placed = markOnMap(m, savedSwapped);
+      if (placed) out.push({ ...placed, number: i + 1 });
+    });
+    return out;
+  }, [marks, against, savedAgainst, savedSwapped]);
+  return { marks: marks ?? [], onMap, isPending: fromView !== undefined && query.isPending, error: query.error };
+}
+
+/**
+ * The saved view's marks on the Bench: each one's text, editable there by its author or a lead (the
+ * same editor as the view page, with its version check), and a link to its thread on the view page.
+ */
+export function SavedMarks({ fromView, marks, against }: { fromView: ViewOnBench; marks: SavedMarksOnMap; against: 'time' | 'speed' }) {
+  const { data: me } = useMe();
+  const project = useProject(fromView.view.projectId);
+  const role = project.data?.role ?? null;
+  const open = !fromView.view.archived;
+  const mayEdit = (m: Mark) => open && (role === 'lead' || (role === 'engineer' && m.author?.id === me?.id));
+  if (marks.error) return <Notice tone="error">The marks of the view cannot be read: {marks.error.message}</Notice>;
+  if (marks.isPending) return <p className="text-xs text-mist-500">Loading the marks of the view…</p>;
+  if (marks.marks.length === 0) return null;
+  return (
+    <section aria-label="Marks of the saved view" data-testid="saved-marks">
+      <h3 className="mb-1 text-xs font-medium text-mist-300">
+        Marks of{' '}
+        <Link to={paths.view(fromView.view.id)} className={linkClass}>
+          {fromView.view.title}
+        </Link>
+      </h3>
+      <ol className="flex flex-col gap-2">
+        {marks.marks.map((m, i) => {
+          const placed = markOnMap(m, fromView.restore.swapped);
+          return (
+            <li key={m.id} className="rounded-md border border-ink-800 px-3 py-2" data-testid={`saved-mark-${m.id}`}>
+              <p className="flex flex-wrap items-center gap-x-2 text-xs text-mist-500">
+                <span className="font-mono text-accent">{i + 1}</span>
+                <span className="font-mono">{placed ? placeText(placed, fromView.restore.against) : 'on a guide'}</span>
+                {placed && against !== fromView.restore.against && <span>(placed on the map against {fromView.restore.against})</span>}
+                <Link to={paths.view(fromView.view.id, m.id)} className={`${linkClass} ml-auto`}>
+                  Thread ({m.commentCount})
+                </Link>
+              </p>
+              {mayEdit(m) ? (
+                <EditableMarkBody viewId={fromView.view.id} mark={m} number={i + 1} />
+              ) : (
+                <>
+                  <MarkText mark={m} />
+                  <MarkByline mark={m} />
+                </>
+              )}
+            </li>
+          );
+        })}
+      </ol>
+    </section>
+  );
+}
+
+/** Marks placed on this Bench and not saved yet: their text stays editable until the view is saved. */
+export function PendingMarks({
+  marks,
+  firstNumber,
+  against,
+  onChange,
+}: {
+  marks: BenchMark[];
+  firstNumber: number;
+  against: 'time' | 'speed';
+  onChange: (update: (marks: BenchMark[]) => BenchMark[]) => void;
+}) {
+  if (marks.length === 0) return null;
+  return (
+    <ol className="flex flex-col gap-1 text-xs text-mist-300" data-testid="pending-marks">
+      {marks.map((m, i) => {
+        const n = firstNumber + i;
+        return (
+          <li key={m.id} className="flex items-center gap-2">
+            <span className="font-mono text-accent">{n}</span>
+            <span className="shrink-0 font-mono text-mist-500">{placeText(m, against)}</span>
+            <input
+              className={`${smallInputClass} min-w-0 flex-1`}
+              aria-label={`Text of pending mark ${n}`}
+              maxLength={MARK_TEXT_MAX}
+              value={m.text}
+              placeholder="(no text)"
+              onChange={(e) => {
+                const text = e.target.value;
+                onChange((ms) => ms.map((x) => (x.id === m.id ? { ...x, text } : x)));
+              }}
+            />
+            <button
+              type="button"
+              className="rounded px-1.5 text-mist-500 hover:bg-ink-800 hover:text-mist-100"
+              aria-label={`Remove mark ${n}`}
+              onClick={() => onChange((ms) => ms.filter((x) => x.id !== m.id))}
+            >
+              Remove
+            </button>
+          </li>
+        );
+      })}
+    </ol>
+  );
+}

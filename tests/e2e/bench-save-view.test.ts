@@ -1,10 +1,13 @@
 /**
- * A view saved from the Bench: the engineer opens a short synthetic run-up (6 s, 1000 → 9000 rpm,
- * 4 pole pairs, carrier 8 kHz stepping to 10 kHz at 5000 rpm, orders 8 and 48, a 60-pulse tacho), places
- * a point mark with a text and saves the view into the demo project, registering nothing by hand; the
- * viewer then finds it in the project's views table and sees the painted snapshot and the mark.
+ * The whole path of a finding, in one browser run: the engineer opens a short synthetic run-up (6 s,
+ * 1000 → 9000 rpm, 4 pole pairs, carrier 8 kHz stepping to 10 kHz at 5000 rpm, orders 8 and 48, a
+ * 60-pulse tacho) on the Bench, sets it up (Hamming window, Glacier colours, against speed, zoomed, order
+ * 8 tracked), places a point mark and saves the view into the demo project; the viewer opens it from the
+ * project's views table, sees the snapshot, the mark and the track, and replies; the engineer follows the
+ * mail in the Outbox to the mark, opens the view live on the Bench at the same state, edits the mark
+ * there and saves one more mark into the same view.
  */
-import type { Browser } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { demoProject } from '../../seeds/demo-scenario';
 import { canvasPixels, launchBrowser, screenshot, signIn } from './browser';
@@ -21,9 +24,12 @@ const runUp = () =>
     11,
   );
 
+async function viewRange(page: Page): Promise<[number, number]> {
+  const el = page.getByTestId('map-view-range');
+  return [Number(await el.getAttribute('data-x0')), Number(await el.getAttribute('data-x1'))];
+}
 
-
-describe('saving a view from the Bench (browser)', () => {
+describe('a finding from the Bench to a colleague and back (browser)', () => {
   const baseUrl = inject('baseUrl');
   let browser: Browser;
   beforeAll(async () => {
@@ -31,7 +37,7 @@ describe('saving a view from the Bench (browser)', () => {
   });
   afterAll(() => browser?.close());
 
-  it('the engineer marks the map and saves a view; the viewer opens it from the project and sees the snapshot and the mark', { timeout: 150_000 }, async () => {
+  it('saved with a mark on the Bench, opened and replied to by a viewer, followed back from the mail and reopened live on the Bench', { timeout: 240_000 }, async () => {
     const title = `Bench run-up ${Date.now().toString(36)}`;
     const markText = 'Carrier step heard on the rig';
     const fileName = `save-view-${Date.now()}.wav`;
@@ -47,8 +53,25 @@ describe('saving a view from the Bench (browser)', () => {
     await expect.poll(() => page.getByTestId('channel-list').locator('tbody tr').count(), { timeout: 20_000 }).toBe(2);
     await page.getByLabel('Quantity of channel 1').selectOption('acceleration');
     await page.getByLabel('Quantity of channel 2').selectOption('tacho');
+    await page.getByLabel('Window').selectOption('hamming');
+    await page.getByLabel('Colours').selectOption('glacier');
     await expect.poll(() => page.getByTestId('map-done').isVisible(), { timeout: 30_000 }).toBe(true);
-    await expect.poll(async () => (await canvasPixels(page, 'map-canvas')).opaque, { timeout: 10_000 }).toBeGreaterThan(0.9);
+
+    // Order 8, tracked; the map against speed, zoomed in.
+    const guides = page.getByRole('region', { name: 'Guides' });
+    await guides.getByLabel('Order k').fill('8');
+    await guides.getByRole('button', { name: 'Add order' }).click();
+    await expect.poll(() => guides.getByTestId('guide-order').count()).toBe(1);
+    await page.getByRole('group', { name: 'Against' }).getByRole('button', { name: 'Speed' }).click();
+    await expect.poll(() => page.getByTestId('map-view-range').textContent(), { timeout: 30_000 }).toMatch(/rpm/);
+    await expect.poll(async () => (await canvasPixels(page, 'map-canvas')).opaque, { timeout: 15_000 }).toBeGreaterThan(0.9);
+    const full = await viewRange(page);
+    await page.getByTestId('map-canvas').hover();
+    await page.keyboard.press('+');
+    await expect.poll(async () => (await viewRange(page)).join(',')).not.toBe(full.join(','));
+    const zoomed = await viewRange(page);
+    expect(zoomed[1] - zoomed[0]).toBeLessThan(full[1] - full[0]);
+    await expect.poll(() => page.getByTestId('tracks-legend').textContent(), { timeout: 20_000 }).toContain('8·fr');
 
     // A point mark with a text, in mark mode.
     await page.getByRole('button', { name: 'Add mark' }).click();
@@ -57,9 +80,8 @@ describe('saving a view from the Bench (browser)', () => {
     const canvas = page.getByTestId('map-canvas');
     const box = (await canvas.boundingBox())!;
     await canvas.click({ position: { x: box.width * 0.5, y: box.height * 0.6 } });
-    const pending = page.getByTestId('pending-marks');
-    await expect.poll(async () => (await pending.textContent()) ?? '').toContain(markText);
-    expect(await pending.locator('li').count()).toBe(1);
+    await expect.poll(() => page.getByLabel('Text of pending mark 1').inputValue()).toBe(markText);
+    expect(await page.getByTestId('pending-marks').locator('li').count()).toBe(1);
 
     // Saved into the demo project; the recording is registered there on the way.
     await page.getByLabel('View title').fill(title);
@@ -74,9 +96,8 @@ describe('saving a view from the Bench (browser)', () => {
     // the pending marks went with the view
     expect(await page.getByTestId('pending-marks').count()).toBe(0);
     await screenshot(page, 'bench-save-view');
-    expect(errors).toEqual([]);
-    await context.close();
 
+    // The viewer finds it in the project, sees the snapshot, the mark and the track, and replies.
     const viewerContext = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
     const viewer = await viewerContext.newPage();
     await signIn(viewer, baseUrl, 'viewer@fanlight.test');
@@ -95,13 +116,77 @@ describe('saving a view from the Bench (browser)', () => {
     const px = await canvasPixels(viewer, 'view-snapshot');
     expect(px.width).toBeGreaterThan(100);
     expect(px.width).toBeLessThanOrEqual(1024);
-    expect(px.height).toBeGreaterThan(100);
+    expect(px.height).toBeGreaterThan(50);
     expect(px.height).toBeLessThanOrEqual(768);
     expect(px.colours).toBeGreaterThan(20);
+    // the track of order 8 came with the snapshot
+    await expect.poll(async () => (await viewer.getByTestId('view-tracks').textContent()) ?? '').toContain('8·fr');
+    expect(await viewer.getByTestId('view-tracks').textContent()).toContain('dB re 1 µm/s² against speed');
     // the mark, on the map and in its card
-    await expect.poll(() => viewer.getByRole('button', { name: `Mark 1: ${markText}` }).count()).toBe(1);
-    await expect.poll(async () => (await viewer.locator('[id^="mark-card-"]').first().textContent()) ?? '').toContain(markText);
+    const markButton = viewer.getByRole('button', { name: `Mark 1: ${markText}` });
+    await expect.poll(() => markButton.count()).toBe(1);
+    const card = viewer.locator('[id^="mark-card-"]').first();
+    await expect.poll(async () => (await card.textContent()) ?? '').toContain(markText);
+    const markId = ((await card.getAttribute('id')) ?? '').replace('mark-card-', '');
+    await markButton.click();
+    await expect.poll(() => viewer.getByTestId('selected-mark').getAttribute('data-mark-id')).toBe(markId);
+    const reply = 'I hear it on the rig too, from 5000 rpm on';
+    await card.getByLabel('Reply').fill(reply);
+    await card.getByRole('button', { name: 'Send reply' }).click();
+    await expect.poll(async () => (await card.textContent()) ?? '').toContain(reply);
     await screenshot(viewer, 'bench-saved-view');
     await viewerContext.close();
+
+    // The engineer gets the mail; its link opens the mark.
+    await page.goto(`${baseUrl}/outbox`);
+    const mail = page.locator('article').filter({ hasText: `Priya Holm replied on your mark in "${title}"` });
+    await expect.poll(() => mail.isVisible(), { timeout: 20_000 }).toBe(true);
+    await mail.getByRole('link', { name: /\/views\// }).click();
+    await page.waitForURL(new RegExp(`/views/${viewId}\\?mark=${markId}#comment-\\d+$`));
+    await expect.poll(() => page.getByTestId('selected-mark').getAttribute('data-mark-id')).toBe(markId);
+    await expect.poll(() => page.locator('[id^="comment-"]').filter({ hasText: reply }).isVisible()).toBe(true);
+
+    // This browser's library holds the recording: the view opens live on the Bench at the same state.
+    await page.getByRole('link', { name: 'Open live on the Bench' }).click();
+    await page.waitForURL(new RegExp(`/bench\\?.*view=${viewId}`));
+    await expect.poll(() => page.getByTestId('bench-from-view').isVisible(), { timeout: 30_000 }).toBe(true);
+    expect(await page.getByTestId('bench-from-view').textContent()).toContain(title);
+    expect(await page.getByLabel('Window').inputValue()).toBe('hamming');
+    expect(await page.getByLabel('Colours').inputValue()).toBe('glacier');
+    await expect.poll(() => page.getByRole('group', { name: 'Against' }).getByRole('button', { name: 'Speed' }).getAttribute('aria-pressed'), { timeout: 40_000 }).toBe('true');
+    await expect.poll(() => page.getByTestId('map-view-range').textContent(), { timeout: 30_000 }).toMatch(/rpm/);
+    const restored = await viewRange(page);
+    expect(Math.abs(restored[0] - zoomed[0])).toBeLessThan(1);
+    expect(Math.abs(restored[1] - zoomed[1])).toBeLessThan(1);
+    expect(await guides.getByTestId('guide-order').count()).toBe(1);
+    await expect.poll(() => page.getByTestId('tracks-legend').textContent(), { timeout: 20_000 }).toContain('8·fr');
+
+    // The saved mark is on the Bench, with its thread; its author edits it there.
+    const saved = page.getByTestId(`saved-mark-${markId}`);
+    await expect.poll(async () => (await saved.textContent()) ?? '', { timeout: 15_000 }).toContain(markText);
+    expect(await saved.textContent()).toContain('Thread (1)');
+    const edited = 'Carrier step at 5000 rpm, heard on the rig';
+    await saved.getByRole('button', { name: 'Edit mark 1' }).click();
+    await saved.getByLabel('Text of mark 1').fill(edited);
+    await saved.getByRole('button', { name: 'Save' }).click();
+    await expect.poll(async () => (await saved.textContent()) ?? '').toContain('· edited');
+    expect(await saved.textContent()).toContain(edited);
+
+    // One more mark, saved into the same view.
+    await page.getByRole('button', { name: 'Add mark' }).click();
+    await page.getByLabel('Mark text').fill('Order 8 peak');
+    await canvas.click({ position: { x: box.width * 0.3, y: box.height * 0.7 } });
+    await expect.poll(() => page.getByLabel('Text of pending mark 2').inputValue()).toBe('Order 8 peak');
+    await page.getByRole('button', { name: `Save changes to “${title}”` }).click();
+    await expect.poll(() => page.getByTestId('saved-view-link').isVisible(), { timeout: 20_000 }).toBe(true);
+    await expect.poll(() => page.getByTestId('pending-marks').count()).toBe(0);
+    await expect.poll(() => page.getByTestId('saved-marks').locator('li').count()).toBe(2);
+    await screenshot(page, 'bench-from-view');
+
+    await page.goto(`${baseUrl}/views/${viewId}`);
+    await expect.poll(() => page.getByRole('button', { name: `Mark 1: ${edited}` }).count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByRole('button', { name: 'Mark 2: Order 8 peak' }).count()).toBe(1);
+    expect(errors).toEqual([]);
+    await context.close();
   });
 });

@@ -9,7 +9,8 @@ import { upgradeViewState } from '../../../../server/schemas/views';
 import type { Weighting } from '../../../../workers/dsp/weighting';
 import type { WindowName } from '../../../../workers/dsp/window';
 import type { PoleChoice } from '../components/speed-source';
-import { colourScaleNames, type ColourScaleName } from '../map/colour-scales';
+import type { ColourScaleName } from '../map/colour-scales';
+import { scaleOrDefault } from '../../views/snapshot/paint';
 import { familyLineId, orderLineId, type CarrierGuideSpec, type Family, type GuidesState, type OrderGuideSpec } from '../map/guides';
 import type { Viewport } from '../map/viewport';
 import type { BenchMark } from './view-snapshot';
@@ -36,8 +37,6 @@ export interface BenchRestore {
   guides: GuidesState;
   poles: PoleChoice;
 }
-
-const isColourScale = (s: string): s is ColourScaleName => (colourScaleNames as readonly string[]).includes(s);
 
 /**
  * The carrier guides of a view saved before `carrierGuides` existed: its electrical families on one
@@ -101,7 +100,7 @@ export function benchRestoreOf(saved: ViewState): BenchRestore {
     blockSize: p.blockSize,
     overlap: p.overlap,
     weighting: p.weighting,
-    colours: isColourScale(state.colourRange.scale) ? state.colourRange.scale : 'ember',
+    colours: scaleOrDefault(state.colourRange.scale),
     topDb: state.colourRange.topDb,
     rangeDb: state.colourRange.rangeDb,
     against: p.against,

@@ -81,7 +81,14 @@ describe('a finding from the Bench to a colleague and back (browser)', () => {
     const box = (await canvas.boundingBox())!;
     await canvas.click({ position: { x: box.width * 0.5, y: box.height * 0.6 } });
     await expect.poll(() => page.getByLabel('Text of pending mark 1').inputValue()).toBe(markText);
-    expect(await page.getByTestId('pending-marks').locator('li').count()).toBe(1);
+    // and a mark on the whole order-8 line
+    const guideText = 'Order 8 rises with speed';
+    await page.getByLabel('Mark text').fill(guideText);
+    expect(await page.getByLabel('Guide to mark').locator('option:checked').textContent()).toBe('8·fr');
+    await page.getByRole('button', { name: 'Mark guide' }).click();
+    await expect.poll(() => page.getByLabel('Text of pending mark 2').inputValue()).toBe(guideText);
+    expect(await page.getByTestId('pending-marks').textContent()).toContain('on 8·fr');
+    expect(await page.getByTestId('pending-marks').locator('li').count()).toBe(2);
 
     // Saved into the demo project; the recording is registered there on the way.
     await page.getByLabel('View title').fill(title);
@@ -127,6 +134,7 @@ describe('a finding from the Bench to a colleague and back (browser)', () => {
     await expect.poll(() => markButton.count()).toBe(1);
     const card = viewer.locator('[id^="mark-card-"]').first();
     await expect.poll(async () => (await card.textContent()) ?? '').toContain(markText);
+    await expect.poll(async () => (await viewer.locator('[id^="mark-card-"]').nth(1).textContent()) ?? '').toContain(guideText);
     const markId = ((await card.getAttribute('id')) ?? '').replace('mark-card-', '');
     await markButton.click();
     await expect.poll(() => viewer.getByTestId('selected-mark').getAttribute('data-mark-id')).toBe(markId);
@@ -164,6 +172,7 @@ describe('a finding from the Bench to a colleague and back (browser)', () => {
     // The saved mark is on the Bench, with its thread; its author edits it there.
     const saved = page.getByTestId(`saved-mark-${markId}`);
     await expect.poll(async () => (await saved.textContent()) ?? '', { timeout: 15_000 }).toContain(markText);
+    expect(await page.getByTestId('saved-marks').textContent()).toContain(`on 8·fr`);
     expect(await saved.textContent()).toContain('Thread (1)');
     const edited = 'Carrier step at 5000 rpm, heard on the rig';
     await saved.getByRole('button', { name: 'Edit mark 1' }).click();
@@ -176,16 +185,16 @@ describe('a finding from the Bench to a colleague and back (browser)', () => {
     await page.getByRole('button', { name: 'Add mark' }).click();
     await page.getByLabel('Mark text').fill('Order 8 peak');
     await canvas.click({ position: { x: box.width * 0.3, y: box.height * 0.7 } });
-    await expect.poll(() => page.getByLabel('Text of pending mark 2').inputValue()).toBe('Order 8 peak');
+    await expect.poll(() => page.getByLabel('Text of pending mark 3').inputValue()).toBe('Order 8 peak');
     await page.getByRole('button', { name: `Save changes to “${title}”` }).click();
     await expect.poll(() => page.getByTestId('saved-view-link').isVisible(), { timeout: 20_000 }).toBe(true);
     await expect.poll(() => page.getByTestId('pending-marks').count()).toBe(0);
-    await expect.poll(() => page.getByTestId('saved-marks').locator('li').count()).toBe(2);
+    await expect.poll(() => page.getByTestId('saved-marks').locator('li').count()).toBe(3);
     await screenshot(page, 'bench-from-view');
 
     await page.goto(`${baseUrl}/views/${viewId}`);
     await expect.poll(() => page.getByRole('button', { name: `Mark 1: ${edited}` }).count(), { timeout: 15_000 }).toBe(1);
-    await expect.poll(() => page.getByRole('button', { name: 'Mark 2: Order 8 peak' }).count()).toBe(1);
+    await expect.poll(() => page.getByRole('button', { name: 'Mark 3: Order 8 peak' }).count()).toBe(1);
     expect(errors).toEqual([]);
     await context.close();
   });

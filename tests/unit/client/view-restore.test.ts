@@ -126,7 +126,7 @@ describe('a saved view back on the Bench', () => {
     expect(benchRestoreOf(viewState.parse(base)).guides.carriers[0].source).toBe('detected');
   });
 
-  it('puts saved marks back where they were placed, swapped or not', () => {
+  it('puts saved marks back where they were placed, swapped or not, and guide marks on their guide', () => {
     const placed: BenchMark[] = [
       { id: 1, kind: 'point', x: 3.2, f: 8100, text: 'carrier step' },
       { id: 2, kind: 'box', x0: 2, x1: 2.5, f0: 7000, f1: 9000, text: 'sidebands' },
@@ -149,8 +149,12 @@ describe('a saved view back on the Bench', () => {
         expect(markOnMap(mark, swapped)).toEqual({ ...m, id: 50 + m.id, saved: true });
       }
     }
-    const guideMark = { id: 7, viewId: 9, kind: 'guide', geometry: { guide: { kind: 'order', order: 8 } }, text: '', version: 1, author: null, createdAt: '', updatedAt: '', commentCount: 0 } as Mark;
-    expect(markOnMap(guideMark, false)).toBeNull();
+    const onOrder = { id: 7, viewId: 9, kind: 'guide', geometry: { guide: { kind: 'order', order: 8 } }, text: 'order 8', version: 1, author: null, createdAt: '', updatedAt: '', commentCount: 0 } as Mark;
+    expect(markOnMap(onOrder, false)).toEqual({ id: 7, kind: 'guide', guide: { kind: 'order', order: 8 }, label: '8·fr', text: 'order 8', saved: true });
+    const onFamily = { ...onOrder, geometry: { guide: { kind: 'family', m: 1, n: -2 } } } as Mark;
+    expect(markOnMap(onFamily, true)).toMatchObject({ kind: 'guide', label: 'fc\u22122fe' });
+    const placedOnGuide: BenchMark = { id: 3, kind: 'guide', guide: { kind: 'family', m: 2, n: 1 }, label: '2fc+fe', text: 't' };
+    expect(markBody(placedOnGuide, true)).toEqual({ kind: 'guide', geometry: { guide: { kind: 'family', m: 2, n: 1 } }, text: 't' });
   });
 });
 

@@ -1,4 +1,5 @@
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
+import type { GuideRef } from '../../../../server/schemas/views';
 import { Link } from 'react-router-dom';
 import { MARK_TEXT_MAX, type Mark } from '../../../../server/schemas/views';
 import { Notice } from '../../../components/ui/notice';
@@ -10,10 +11,12 @@ import { useMarks } from '../../views/api/marks';
 import { EditableMarkBody } from '../../views/components/mark-editor';
 import { MarkByline, MarkText } from '../../views/components/mark-card';
 import { markOnMap, type ViewOnBench } from '../views/view-restore';
+import type { GuideLine } from '../map/guides';
 import type { BenchMark } from '../views/view-snapshot';
-import { smallInputClass } from './bench-panel';
+import { smallInputClass, smallSelectClass } from './bench-panel';
 
 const placeText = (m: BenchMark, against: 'time' | 'speed') => {
+  if (m.kind === 'guide') return `on ${m.label}`;
   const unit = against === 'speed' ? 'rpm' : 's';
   const digits = against === 'speed' ? 0 : 2;
   return m.kind === 'point'
@@ -76,8 +79,8 @@ export function SavedMarks({ fromView, marks, against }: { fromView: ViewOnBench
             <li key={m.id} className="rounded-md border border-ink-800 px-3 py-2" data-testid={`saved-mark-${m.id}`}>
               <p className="flex flex-wrap items-center gap-x-2 text-xs text-mist-500">
                 <span className="font-mono text-accent">{i + 1}</span>
-                <span className="font-mono">{placed ? placeText(placed, fromView.restore.against) : 'on a guide'}</span>
-                {placed && against !== fromView.restore.against && <span>(placed on the map against {fromView.restore.against})</span>}
+                <span className="font-mono">{placed ? placeText(placed, fromView.restore.against) : 'not on this map'}</span>
+                {placed && placed.kind !== 'guide' && against !== fromView.restore.against && <span>(placed on the map against {fromView.restore.against})</span>}
                 <Link to={paths.view(fromView.view.id, m.id)} className={`${linkClass} ml-auto`}>
                   Thread ({m.commentCount})
                 </Link>
@@ -120,7 +123,7 @@ export function PendingMarks({
             <span className="font-mono text-accent">{n}</span>
             <span className="shrink-0 font-mono text-mist-500">{placeText(m, against)}</span>
             <input
-              className={`${smallInputClass} min-w-0 flex-1`}
+              className={`${smallInputClass()} min-w-0 flex-1`}
               aria-label={`Text of pending mark ${n}`}
               maxLength={MARK_TEXT_MAX}
               value={m.text}
@@ -142,5 +145,48 @@ export function PendingMarks({
         );
       })}
     </ol>
+  );
+}
+
+/** A line the map shows that a guide mark can be put on (orders and electrical carrier families). */
+export interface MarkableGuide {
+  id: string;
+  label: string;
+  guide: GuideRef;
+}
+
+export function markableGuides(lines: GuideLine[]): MarkableGuide[] {
+  const out: MarkableGuide[] = [];
+  const seen = new Set<string>();
+  for (const l of lines) {
+    const g = l.guide;
+    const ref: GuideRef | null = g.kind === 'order' ? { kind: 'order', order: g.order } : g.per === 'electrical' ? { kind: 'family', m: g.m, n: g.n } : null;
+    if (!ref) continue;
+    const key = JSON.stringify(ref);
+    if (seen.has(key)) continue; // the same family on two carriers is one guide in a view
+    seen.add(key);
+    out.push({ id: l.id, label: l.label, guide: ref });
+  }
+  return out;
+}
+
+/** Puts a mark on a whole guide line, with the text of the next mark. */
+export function GuideMarkPicker({ guides, onMark }: { guides: MarkableGuide[]; onMark: (g: MarkableGuide) => void }) {
+  const [chosen, setChosen] = useState('');
+  if (guides.length === 0) return null;
+  const pick = guides.find((g) => g.id === chosen) ?? guides[0];
+  return (
+    <div className="flex items-center gap-2 text-xs text-mist-500">
+      <select className={smallSelectClass} aria-label="Guide to mark" value={pick.id} onChange={(e) => setChosen(e.target.value)}>
+        {guides.map((g) => (
+          <option key={g.id} value={g.id}>
+            {g.label}
+          </option>
+        ))}
+      </select>
+      <button type="button" className="rounded px-2 py-1 text-mist-300 hover:bg-ink-800 hover:text-mist-100" onClick={() => onMark(pick)}>
+        Mark guide
+      </button>
+    </div>
   );
 }

@@ -265,6 +265,7 @@ export function MapView(props: Props) {
     ctx.font = `600 ${11 * dpr}px ${FONT}`;
     ctx.textBaseline = 'alphabetic';
     p.marks.forEach((m, i) => {
+      if (m.kind === 'guide') return; // a guide mark is on the whole line: listed, not drawn
       ctx.setLineDash(m.saved ? [] : [4 * dpr, 3 * dpr]);
       let labelAt: [number, number];
       if (m.kind === 'point') {

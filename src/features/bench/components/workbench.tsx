@@ -30,7 +30,7 @@ import type { MapMode, MarkPlace } from './map-view';
 import { SaveViewForm, type ViewCapture } from './save-view-form';
 import { benchViewState, quantiseVisible, snapshotHeaderOf, type BenchMark, type BenchViewInputs } from '../views/view-snapshot';
 import type { ViewOnBench } from '../views/view-restore';
-import { PendingMarks, SavedMarks, useSavedMarksOnMap } from './bench-marks';
+import { GuideMarkPicker, markableGuides, PendingMarks, SavedMarks, useSavedMarksOnMap, type MarkableGuide } from './bench-marks';
 import { RegisterForm } from './register-form';
 import { ShortcutsDialog, useShortcuts } from './shortcuts';
 import { SpeedSourceForm, type PoleChoice } from './speed-source';
@@ -174,6 +174,13 @@ export function Workbench({
     (place: MarkPlace) => {
       const id = nextMarkId.current++;
       setMarks((ms) => [...ms, { ...place, id, text: markText.trim() }]);
+    },
+    [markText],
+  );
+  const onMarkGuide = useCallback(
+    (g: MarkableGuide) => {
+      const id = nextMarkId.current++;
+      setMarks((ms) => [...ms, { id, kind: 'guide', guide: g.guide, label: g.label, text: markText.trim() }]);
     },
     [markText],
   );
@@ -335,8 +342,11 @@ export function Workbench({
             placeholder="The text of the next mark you place"
           />
           <p className="pb-2 text-xs text-mist-500">
-            {mode === 'mark' ? 'Click the map for a point, Shift-drag for a box.' : 'Choose Add mark (m) to place more.'} Marks are saved with the view.
+            {mode === 'mark' ? 'Click the map for a point, Shift-drag for a box, or mark a whole guide.' : 'Choose Add mark (m) to place more.'} Marks are saved with the view.
           </p>
+          <div className="pb-1">
+            <GuideMarkPicker guides={markableGuides(lines)} onMark={onMarkGuide} />
+          </div>
         </div>
         <PendingMarks marks={marks} firstNumber={savedMarks.onMap.length + 1} against={against} onChange={setMarks} />
       </div>

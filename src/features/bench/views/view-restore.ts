@@ -4,14 +4,14 @@
  * snapshot's axes (x across, y up) into the map's terms (x = time or speed, f = frequency). The reverse
  * of view-snapshot.ts. No DOM here.
  */
-import type { Mark, ViewDetail, ViewState } from '../../../../server/schemas/views';
+import type { GuideRef, Mark, ViewDetail, ViewState } from '../../../../server/schemas/views';
 import { upgradeViewState } from '../../../../server/schemas/views';
 import type { Weighting } from '../../../../workers/dsp/weighting';
 import type { WindowName } from '../../../../workers/dsp/window';
 import type { PoleChoice } from '../components/speed-source';
 import type { ColourScaleName } from '../map/colour-scales';
 import { scaleOrDefault } from '../../views/snapshot/paint';
-import { familyLineId, orderLineId, type CarrierGuideSpec, type Family, type GuidesState, type OrderGuideSpec } from '../map/guides';
+import { familyLabel, familyLineId, orderLabel, orderLineId, type CarrierGuideSpec, type Family, type GuidesState, type OrderGuideSpec } from '../map/guides';
 import type { Viewport } from '../map/viewport';
 import type { BenchMark } from './view-snapshot';
 
@@ -111,11 +111,18 @@ export function benchRestoreOf(saved: ViewState): BenchRestore {
   };
 }
 
+/** The name of a guide a mark is on: "8·fr", "fc−2fe". */
+export const guideName = (g: GuideRef) => (g.kind === 'order' ? orderLabel(g.order) : familyLabel(g.m, g.n, 'electrical'));
+
 /**
- * A saved point or box mark in the map's terms (a guide mark has no place on the map: null). `id` is
- * the server's mark id, so the Bench can tell a saved mark from one waiting to be saved.
+ * A saved mark in the map's terms: a point or box where it was placed, a guide mark with its guide. `id`
+ * is the server's mark id, so the Bench can tell a saved mark from one waiting to be saved.
  */
 export function markOnMap(mark: Mark, swapped: boolean): BenchMark | null {
+  if (mark.kind === 'guide') {
+    const guide = (mark.geometry as { guide: GuideRef }).guide;
+    return { id: mark.id, kind: 'guide', guide, label: guideName(guide), text: mark.text, saved: true };
+  }
   const g = mark.geometry as Record<string, number>;
   if (mark.kind === 'point') {
     return { id: mark.id, kind: 'point', x: swapped ? g.y : g.x, f: swapped ? g.x : g.y, text: mark.text, saved: true };

@@ -7,7 +7,7 @@
  */
 import type { z } from 'zod';
 import type { InverterReport } from '../../../../workers/dsp/inverter-analysis';
-import type { CreateMarkBody, SnapshotHeader, viewStateV1 } from '../../../../server/schemas/views';
+import type { CreateMarkBody, GuideRef, SnapshotHeader, viewStateV1 } from '../../../../server/schemas/views';
 import { quantiseDb } from '../../../../server/services/snapshot-codec';
 import type { TrackSeries } from '../analysis/spectra';
 import type { GuideLine, GuidesState } from '../map/guides';
@@ -21,6 +21,8 @@ export const SNAPSHOT_MAX_HEIGHT = 768;
 export type BenchMark = (
   | { id: number; kind: 'point'; x: number; f: number; text: string }
   | { id: number; kind: 'box'; x0: number; x1: number; f0: number; f1: number; text: string }
+  /** A mark on a whole guide line (an order, or a carrier family m·fc + n·fe); `label` names it */
+  | { id: number; kind: 'guide'; guide: GuideRef; label: string; text: string }
 ) & {
   /** A mark of the saved view the Bench was opened from (id is the server's); else one still to save */
   saved?: true;
@@ -48,6 +50,7 @@ export const toAxes = (x: number, f: number, swapped: boolean) => (swapped ? { x
 
 export function markBody(m: BenchMark, swapped: boolean): CreateMarkBody {
   if (m.kind === 'point') return { kind: 'point', geometry: toAxes(m.x, m.f, swapped), text: m.text };
+  if (m.kind === 'guide') return { kind: 'guide', geometry: { guide: m.guide }, text: m.text };
   const a = toAxes(m.x0, m.f0, swapped);
   const b = toAxes(m.x1, m.f1, swapped);
   return {

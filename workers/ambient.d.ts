@@ -13,14 +13,14 @@ declare module 'wav-decoder' {
 }
 
 declare module '@echogarden/pffft-wasm/simd' {
-  import type { PffftModule } from './dsp/pffft-module';
-  const factory: () => Promise<PffftModule>;
+  import type { PffftModule, PffftModuleOptions } from './dsp/pffft-module';
+  const factory: (module?: PffftModuleOptions) => Promise<PffftModule>;
   export default factory;
 }
 
 declare module '@echogarden/pffft-wasm' {
-  import type { PffftModule } from './dsp/pffft-module';
-  const factory: () => Promise<PffftModule>;
+  import type { PffftModule, PffftModuleOptions } from './dsp/pffft-module';
+  const factory: (module?: PffftModuleOptions) => Promise<PffftModule>;
   export default factory;
 }
 

@@ -4,8 +4,11 @@
  * - PFFFT (J. Pommier, after FFTPACK) compiled to WebAssembly with SIMD: @echogarden/pffft-wasm;
  * - fft.js (F. Indutny), plain JavaScript: the fallback where WASM SIMD is missing, and the
  *   independent cross-check in tests.
+ * With SIMD, a map's per-frame power readout runs in a small WASM kernel of Fanlight's own on PFFFT's
+ * memory (frame-kernel.ts, kernels/frame-power.wat); without it, in JavaScript.
  */
 import FFTJS from 'fft.js';
+import { loadPffftWithKernel, type FrameKernel } from './frame-kernel';
 import type { PffftModule } from './pffft-module';
 import type { SpectralWindow } from './window';
 
@@ -14,6 +17,8 @@ export type FftBackend = 'pffft-simd' | 'pffft' | 'fft.js';
 export interface RealFft {
   readonly size: number;
   readonly backend: FftBackend;
+  /** Where framePower reads the powers out: the WASM SIMD kernel (kernels/frame-power.wat) or JavaScript. */
+  readonly readout: 'wasm-kernel' | 'js';
   /**
    * |X[k]|² for k = 0…N/2 into out (length N/2 + 1). `input` holds N real samples, already windowed;
    * it is not changed.
@@ -26,29 +31,49 @@ export interface RealFft {
    * out[at…at+N/2] (edgeScale at DC and Nyquist, scale elsewhere).
    */
   framePower(x: Float32Array, start: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number): void;
+  /**
+   * framePower for `count` frames starting at x[start], x[start + hop], …, into consecutive rows of
+   * N/2 + 1 values from out[at].
+   */
+  framesPower(x: Float32Array, start: number, hop: number, count: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number): void;
   dispose(): void;
 }
 
 export const isPowerOfTwo = (n: number) => Number.isInteger(n) && n >= 2 && (n & (n - 1)) === 0;
 
-let pffftModule: Promise<{ m: PffftModule; simd: boolean } | null> | null = null;
+interface LoadedPffft {
+  m: PffftModule;
+  simd: boolean;
+  kernel: FrameKernel | null;
+}
 
-async function loadPffft(): Promise<{ m: PffftModule; simd: boolean } | null> {
+let pffftModule: Promise<LoadedPffft | null> | null = null;
+
+/** Set to false (tests) before the first createRealFft to load PFFFT without the frame kernel. */
+export const pffftOptions = { kernel: true };
+
+async function loadPffft(): Promise<LoadedPffft | null> {
   try {
-    const m = await (await import('@echogarden/pffft-wasm/simd')).default();
-    return { m, simd: true };
+    const factory = (await import('@echogarden/pffft-wasm/simd')).default;
+    const withKernel = pffftOptions.kernel ? await loadPffftWithKernel(factory) : null;
+    if (withKernel) return { ...withKernel, simd: true };
+    return { m: await factory(), simd: true, kernel: null };
   } catch {
     try {
       const m = await (await import('@echogarden/pffft-wasm')).default();
-      return { m, simd: false };
+      return { m, simd: false, kernel: null };
     } catch {
       return null;
     }
   }
 }
 
+/** Frames per batch copied into WASM memory at once are capped so the batch stays under 4 MB. */
+const BATCH_FLOATS = 1 << 20;
+
 class PffftReal implements RealFft {
   readonly backend: FftBackend;
+  readonly readout: 'wasm-kernel' | 'js';
   private readonly setup: number;
   private readonly inPtr: number;
   private readonly outPtr: number;
@@ -58,12 +83,22 @@ class PffftReal implements RealFft {
   private readonly reIndex: Int32Array;
   private readonly imIndex: Int32Array;
 
+  /** The readout kernel's buffers: powers of one frame, the time-domain window, a batch of samples. */
+  private powPtr = 0;
+  private winPtr = 0;
+  private winOf: SpectralWindow | null = null;
+  private batchPtr = 0;
+  private batchFloats = 0;
+  private powView: Float32Array = new Float32Array(0);
+
   constructor(
     private readonly m: PffftModule,
     readonly size: number,
     simd: boolean,
+    private readonly kernel: FrameKernel | null,
   ) {
     this.backend = simd ? 'pffft-simd' : 'pffft';
+    this.readout = kernel ? 'wasm-kernel' : 'js';
     this.setup = m._pffft_new_setup(size, 0); // 0 = PFFFT_REAL
     this.inPtr = m._pffft_aligned_malloc(size * 4);
     this.outPtr = m._pffft_aligned_malloc(size * 4);
@@ -83,6 +118,68 @@ class PffftReal implements RealFft {
       this.reIndex[k] = order[2 * k];
       this.imIndex[k] = order[2 * k + 1];
     }
+    if (kernel) {
+      this.powPtr = m._pffft_aligned_malloc((half + 4) * 4);
+      this.winPtr = m._pffft_aligned_malloc(size * 4);
+    }
+  }
+
+  /** A view of the kernel's power row, renewed when the memory has grown (growth detaches old views). */
+  private powers(): Float32Array {
+    if (this.powView.buffer !== this.m.HEAPF32.buffer) this.powView = this.m.HEAPF32.subarray(this.powPtr >> 2, (this.powPtr >> 2) + (this.size >> 1) + 1);
+    return this.powView;
+  }
+
+  /**
+   * The kernel route for one frame whose N samples sit at byte address src (16-byte aligned): transform,
+   * then the powers into the kernel's row. Narrow windows (rect, Hann, Hamming) by their 3 spectral taps on
+   * the raw block; wider ones multiplied in time first (into inPtr, so src is never changed).
+   */
+  private kernelFrame(src: number, win: SpectralWindow, scale: number, edgeScale: number): void {
+    const k = this.kernel!;
+    const m = this.m;
+    const c = win.spectralKernel;
+    const half = this.size >> 1;
+    if (c.length <= 3) {
+      m._pffft_transform_ordered(this.setup, src, this.outPtr, this.workPtr, 0);
+      k.narrowPower(this.outPtr, this.powPtr, half, c.length === 3 ? c[1] : c[0], c.length === 3 ? c[0] : 0, scale, edgeScale);
+    } else {
+      if (this.winOf !== win) {
+        m.HEAPF32.set(win.w, this.winPtr >> 2);
+        this.winOf = win;
+      }
+      k.multiply(src, this.winPtr, this.inPtr, this.size);
+      m._pffft_transform_ordered(this.setup, this.inPtr, this.outPtr, this.workPtr, 0);
+      k.narrowPower(this.outPtr, this.powPtr, half, 1, 0, scale, edgeScale);
+    }
+  }
+
+  framesPower(x: Float32Array, start: number, hop: number, count: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number): void {
+    const n = this.size;
+    const bins = (n >> 1) + 1;
+    if (!this.kernel || count <= 1 || hop % 4 !== 0 || hop > n) {
+      for (let f = 0; f < count; f++) this.framePower(x, start + f * hop, win, out, at + f * bins, scale, edgeScale);
+      return;
+    }
+    // Overlapping frames share their samples: copy a batch's span into WASM memory once and transform
+    // every frame from its place in it (hop·4 bytes keeps each frame 16-byte aligned, as PFFFT needs).
+    const per = Math.max(1, Math.min(count, Math.floor((BATCH_FLOATS - n) / hop) + 1));
+    const need = (per - 1) * hop + n;
+    if (this.batchFloats < need) {
+      if (this.batchPtr) this.m._pffft_aligned_free(this.batchPtr);
+      this.batchPtr = this.m._pffft_aligned_malloc(need * 4);
+      this.batchFloats = need;
+    }
+    for (let f0 = 0; f0 < count; f0 += per) {
+      const frames = Math.min(per, count - f0);
+      const s = start + f0 * hop;
+      this.m.HEAPF32.set(x.subarray(s, s + (frames - 1) * hop + n), this.batchPtr >> 2);
+      const row = this.powers();
+      for (let f = 0; f < frames; f++) {
+        this.kernelFrame(this.batchPtr + f * hop * 4, win, scale, edgeScale);
+        out.set(row, at + (f0 + f) * bins);
+      }
+    }
   }
 
   private re = new Float32Array(0);
@@ -97,6 +194,12 @@ class PffftReal implements RealFft {
   framePower(x: Float32Array, start: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number): void {
     const n = this.size;
     const half = n >> 1;
+    if (this.kernel) {
+      this.m.HEAPF32.set(x.subarray(start, start + n), this.inPtr >> 2);
+      this.kernelFrame(this.inPtr, win, scale, edgeScale);
+      out.set(this.powers(), at);
+      return;
+    }
     const c = win.spectralKernel;
     const p = c.length >> 1;
     if (this.re.length !== half + 1 + 2 * p) {
@@ -228,6 +331,7 @@ class PffftReal implements RealFft {
   }
 
   dispose(): void {
+    for (const p of [this.powPtr, this.winPtr, this.batchPtr]) if (p) this.m._pffft_aligned_free(p);
     this.m._pffft_aligned_free(this.inPtr);
     this.m._pffft_aligned_free(this.outPtr);
     this.m._pffft_aligned_free(this.workPtr);
@@ -237,6 +341,7 @@ class PffftReal implements RealFft {
 
 class FftJsReal implements RealFft {
   readonly backend: FftBackend = 'fft.js';
+  readonly readout = 'js' as const;
   private readonly fft: FFTJS;
   private readonly out: number[];
   private readonly buf: Float64Array;
@@ -277,6 +382,11 @@ class FftJsReal implements RealFft {
     for (let k = 1, j = 2; k < half; k++, j += 2) out[at + k] = (y[j] * y[j] + y[j + 1] * y[j + 1]) * scale;
   }
 
+  framesPower(x: Float32Array, start: number, hop: number, count: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number): void {
+    const bins = (this.size >> 1) + 1;
+    for (let f = 0; f < count; f++) this.framePower(x, start + f * hop, win, out, at + f * bins, scale, edgeScale);
+  }
+
   dispose(): void {}
 }
 
@@ -286,7 +396,8 @@ export async function createRealFft(n: number, backend: 'auto' | 'fft.js' = 'aut
   if (backend === 'auto' && n >= 32) {
     pffftModule ??= loadPffft();
     const loaded = await pffftModule;
-    if (loaded) return new PffftReal(loaded.m, n, loaded.simd);
+    // the kernel's vector loop wants N/2 ≥ 8 and a multiple of 4: every PFFFT real size (N ≥ 32) has that
+    if (loaded) return new PffftReal(loaded.m, n, loaded.simd, loaded.kernel);
   }
   return new FftJsReal(n);
 }

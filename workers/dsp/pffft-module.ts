@@ -10,3 +10,12 @@ export interface PffftModule {
   _pffft_zreorder(setup: number, input: number, output: number, direction: 0 | 1): void;
   _pffft_simd_size(): number;
 }
+
+/**
+ * What the module factory accepts (Emscripten's Module object); only the documented hook Fanlight uses.
+ * instantiateWasm(imports, receiveInstance) lets the caller instantiate the binary itself and so hold
+ * its WebAssembly.Memory; it returns {} and calls receiveInstance later.
+ */
+export interface PffftModuleOptions {
+  instantiateWasm?(imports: WebAssembly.Imports, receiveInstance: (instance: WebAssembly.Instance, module: WebAssembly.Module) => void): object;
+}

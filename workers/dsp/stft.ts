@@ -67,13 +67,10 @@ export function computeFrames(
   to: number,
   out: Float32Array,
 ): void {
-  const bins = layout.bins;
   // mean square per bin: 2|X|²/(Σw)² inside, |X|²/(Σw)² at DC and Nyquist
   const inner = 2 / (win.sum * win.sum);
   const edge = 1 / (win.sum * win.sum);
-  for (let f = from; f < to; f++) {
-    fft.framePower(x, f * layout.hop - x0, win, out, (f - from) * bins, inner, edge);
-  }
+  if (to > from) fft.framesPower(x, from * layout.hop - x0, layout.hop, to - from, win, out, 0, inner, edge);
 }
 
 /** Linear power average of frames [from, to) of a map: Welch's method [Welch 1967] when overlapping. */

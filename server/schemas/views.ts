@@ -114,6 +114,27 @@ export const carrierGuideState = z.looseObject({
   visible: z.boolean().default(true),
 });
 
+/** Where the map's speed came from: tacho pulses, a speed channel, a typed ramp, or none. */
+export const speedSourceState = z.discriminatedUnion(
+  'kind',
+  [
+    z.looseObject({ kind: z.literal('none') }),
+    z.looseObject({
+      kind: z.literal('tacho'),
+      channel: z.number().int().min(0).max(63),
+      ppr: z.number().int().min(1).max(100_000),
+      triggerLevel: finite.nullable().default(null),
+    }),
+    z.looseObject({
+      kind: z.literal('channel'),
+      channel: z.number().int().min(0).max(63),
+      rpmPerUnit: finite.refine((v) => v !== 0, { error: 'The scale is not 0.' }),
+    }),
+    z.looseObject({ kind: z.literal('ramp'), startRpm: z.number().min(0).max(1_000_000), endRpm: z.number().min(0).max(1_000_000) }),
+  ],
+  { error: 'The speed source is tacho, channel, ramp or none.' },
+);
+
 export const viewStateV1 = z.looseObject({
   stateVersion: z.literal(1),
   processing: processingSettings,
@@ -125,6 +146,8 @@ export const viewStateV1 = z.looseObject({
   selectedTracks: z.array(trackRef).max(50, { error: 'At most 50 tracks.' }).default([]),
   /** Added after the first views were saved: absent in those, which reopen with the carriers of `guides`. */
   carrierGuides: z.array(carrierGuideState).max(20, { error: 'At most 20 carrier guides.' }).optional(),
+  /** The speed source the map against speed and the guides were computed with. */
+  speedSource: speedSourceState.optional(),
   /** Whether `polePairs` was typed on the Bench or inferred from the sideband spacing. */
   polePairsSource: z.enum(['typed', 'inferred']).optional(),
 });

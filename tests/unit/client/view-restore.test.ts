@@ -45,6 +45,7 @@ function inputs(swapped: boolean, against: 'time' | 'speed'): BenchViewInputs {
     lines,
     report: null,
     polePairs: 4,
+    speedSource: { kind: 'tacho', channel: 2, ppr: 60, triggerLevel: 0.5 },
     polePairsSource: 'typed',
     durationS: 6,
     tracks: null,
@@ -70,6 +71,7 @@ describe('a saved view back on the Bench', () => {
           against,
           swapped,
           poles: { mode: 'typed', value: 4 },
+          speedSource: { kind: 'tacho', channel: 2, ppr: 60, triggerLevel: 0.5 },
         });
         expect(r.viewport).toEqual(p.view);
         expect(r.guides.orders.map((o) => [o.order, o.hidden])).toEqual([
@@ -94,6 +96,19 @@ describe('a saved view back on the Bench', () => {
     expect(benchRestoreOf(viewState.parse(benchViewState(p))).poles).toEqual({ mode: 'inferred' });
   });
 
+  it('keeps a typed ramp or a speed channel as the speed source', () => {
+    for (const speedSource of [
+      { kind: 'ramp', startRpm: 800, endRpm: 12000 },
+      { kind: 'channel', channel: 3, rpmPerUnit: 1000 },
+      { kind: 'none' },
+    ] as const) {
+      const p = { ...inputs(false, 'time'), speedSource };
+      expect(benchRestoreOf(viewState.parse(benchViewState(p))).speedSource).toEqual(speedSource);
+    }
+    const bad = { ...benchViewState(inputs(false, 'time')), speedSource: { kind: 'channel', channel: 1, rpmPerUnit: 0 } };
+    expect(viewState.safeParse(bad).success).toBe(false);
+  });
+
   it('opens a view saved before carrier guides were kept: its families on one carrier', () => {
     const base = {
       stateVersion: 1,
@@ -109,6 +124,7 @@ describe('a saved view back on the Bench', () => {
     };
     const steady = benchRestoreOf(viewState.parse({ ...base, carrierSchedule: [{ fromS: 0, toS: 6, carrierHz: 8000 }] }));
     expect(steady.colours).toBe('ember');
+    expect(steady.speedSource).toBeNull(); // the Bench picks one from the channel setup
     expect(steady.guides.carriers).toHaveLength(1);
     expect(steady.guides.carriers[0]).toMatchObject({ source: 'typed', centreHz: 8000, per: 'electrical', families: [{ m: 1, n: -1 }, { m: 1, n: 1 }] });
     expect(steady.guides.selected).toEqual([familyLineId(steady.guides.carriers[0], { m: 1, n: -1 })]);

@@ -72,7 +72,7 @@ export function Workbench({
   const stores = useMemo(createBenchStores, []);
 
   // Channels and speed
-  const [speedChoice, setSpeedChoice] = useState<SpeedSource | null>(null);
+  const [speedChoice, setSpeedChoice] = useState<SpeedSource | null>(restore?.speedSource ?? null);
   const speedSource = speedChoice ?? defaultSpeedSource(setup);
   const [poles, setPoles] = useState<PoleChoice>(restore?.poles ?? { mode: 'inferred' });
   const channels = useMemo(() => ({ indices: channelIndices, samples: channelSamples }), [channelIndices, channelSamples]);
@@ -320,6 +320,7 @@ export function Workbench({
       lines,
       report,
       polePairs,
+      speedSource,
       polePairsSource: typedPoles !== null ? 'typed' : polePairs !== null ? 'inferred' : null,
       durationS: header.durationS,
       tracks: tracksForSnapshot(),

@@ -9,6 +9,7 @@ import { upgradeViewState } from '../../../../server/schemas/views';
 import type { Weighting } from '../../../../workers/dsp/weighting';
 import type { WindowName } from '../../../../workers/dsp/window';
 import type { PoleChoice } from '../components/speed-source';
+import type { SpeedSource } from '../hooks/use-speed-curve';
 import type { ColourScaleName } from '../map/colour-scales';
 import { scaleOrDefault } from '../../views/snapshot/paint';
 import { familyLabel, familyLineId, orderLabel, orderLineId, type CarrierGuideSpec, type Family, type GuidesState, type OrderGuideSpec } from '../map/guides';
@@ -36,6 +37,8 @@ export interface BenchRestore {
   viewport: Viewport;
   guides: GuidesState;
   poles: PoleChoice;
+  /** null: the Bench picks one from the channel setup, as for a recording opened afresh */
+  speedSource: SpeedSource | null;
 }
 
 /**
@@ -108,7 +111,21 @@ export function benchRestoreOf(saved: ViewState): BenchRestore {
     viewport: { x: [along.from, along.to], f: [freq.from, freq.to] },
     guides: { orders, carriers, selected: [...new Set(selected)], nextId },
     poles: typedPoles ? { mode: 'typed', value: state.polePairs! } : { mode: 'inferred' },
+    speedSource: state.speedSource ? speedSourceOf(state.speedSource) : null,
   };
+}
+
+function speedSourceOf(s: NonNullable<ReturnType<typeof upgradeViewState>['speedSource']>): SpeedSource {
+  switch (s.kind) {
+    case 'none':
+      return { kind: 'none' };
+    case 'tacho':
+      return { kind: 'tacho', channel: s.channel, ppr: s.ppr, triggerLevel: s.triggerLevel };
+    case 'channel':
+      return { kind: 'channel', channel: s.channel, rpmPerUnit: s.rpmPerUnit };
+    case 'ramp':
+      return { kind: 'ramp', startRpm: s.startRpm, endRpm: s.endRpm };
+  }
 }
 
 /** The name of a guide a mark is on: "8·fr", "fc−2fe". */

@@ -13,6 +13,7 @@ import type { TrackSeries } from '../analysis/spectra';
 import type { GuideLine, GuidesState } from '../map/guides';
 import type { MapRaster } from '../map/map-raster';
 import type { Viewport } from '../map/viewport';
+import type { SpeedSource } from '../hooks/use-speed-curve';
 
 export const SNAPSHOT_MAX_WIDTH = 1024;
 export const SNAPSHOT_MAX_HEIGHT = 768;
@@ -129,6 +130,7 @@ export interface BenchViewInputs {
   lines: GuideLine[];
   report: InverterReport | null;
   polePairs: number | null;
+  speedSource: SpeedSource;
   /** Where polePairs came from: typed on the Bench, or inferred from the sideband spacing */
   polePairsSource: 'typed' | 'inferred' | null;
   durationS: number;
@@ -247,6 +249,7 @@ export function benchViewState(p: BenchViewInputs): ViewStateInput {
     ...(p.polePairs !== null && p.polePairsSource ? { polePairsSource: p.polePairsSource } : {}),
     selectedTracks: selectedTracks.slice(0, 50),
     carrierGuides,
+    speedSource: p.speedSource,
   };
 }
 

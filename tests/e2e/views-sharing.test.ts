@@ -1,6 +1,6 @@
 /**
  * Findings that travel: a saved view with its snapshot and a mark (made through the API from the
- * engineer's page, as the Bench will), opened by a viewer from the project's views table, replied to,
+ * engineer's page, as the Bench does), opened by a viewer from the project's views table, replied to,
  * followed back from the mail in the Outbox; then a share link opened without an account and revoked.
  * The snapshot is an invented run-up map (orders 8, 24, 48; a carrier stepping 8 → 10 kHz at 6200 rpm
  * with sidebands fc ± 2fe for 4 pole pairs).

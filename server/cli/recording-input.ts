@@ -1,4 +1,7 @@
-/** Opening a recording for a command: the channels it asks for, with --cal applied. */
+/**
+ * Opening a recording for a command: the channels it asks for, with --cal applied. Samples land in
+ * SharedArrayBuffers, so the map's worker threads (thread-pool.ts) read them without a copy.
+ */
 import { decodeRecording } from '../../workers/io/decode-recording';
 import type { DecodedRecording } from '../../workers/io/recording';
 import { openFileSource } from './node-file-source';
@@ -8,7 +11,7 @@ import { UsageError } from './options';
 export async function readChannels(file: string, channels: number[]): Promise<DecodedRecording> {
   const source = await openFileSource(file);
   try {
-    return await decodeRecording(source, { channels });
+    return await decodeRecording(source, { channels, shared: true });
   } finally {
     await source.close();
   }

@@ -16,9 +16,10 @@ const FS = 51200;
 const BLOCK = 8192;
 const HOP = BLOCK / 4;
 
+/** The channel in shared memory, where the CLI decodes a recording (recording-input.ts), so the pool copies nothing. */
 function signal(seconds: number): Float32Array {
   const n = seconds * FS;
-  const x = new Float32Array(n);
+  const x = new Float32Array(new SharedArrayBuffer(n * 4));
   let s = 1;
   for (let i = 0; i < n; i++) {
     s = (s * 1664525 + 1013904223) >>> 0;

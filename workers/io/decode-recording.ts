@@ -37,15 +37,23 @@ export async function readRecordingHeader(source: ByteSource, options: DecodeOpt
   return (await readCsv(source, { ...options.csv, channels: [], onProgress: options.onProgress })).header;
 }
 
+function toShared(x: Float32Array): Float32Array {
+  const copy = new Float32Array(new SharedArrayBuffer(x.byteLength));
+  copy.set(x);
+  return copy;
+}
+
 export async function decodeRecording(source: ByteSource, options: DecodeOptions = {}): Promise<DecodedRecording> {
   const format = await sniffFormat(source);
   if (format === 'csv') {
-    return readCsv(source, {
+    const rec = await readCsv(source, {
       ...options.csv,
       channels: options.channels,
       onProgress: options.onProgress,
       isCancelled: options.isCancelled,
     });
+    if (options.shared) rec.samples = rec.samples.map(toShared);
+    return rec;
   }
   const header = await readWavHeader(source);
   const channels = options.channels ?? header.channels.map((c) => c.index);
@@ -57,6 +65,7 @@ export async function decodeRecording(source: ByteSource, options: DecodeOptions
     channels,
     onProgress: options.onProgress,
     isCancelled: options.isCancelled,
+    shared: options.shared,
   });
   return { header, channelIndices: channels, samples, nonFinite };
 }

@@ -72,4 +72,9 @@ export interface DecodeOptions {
   onProgress?: ProgressCallback;
   /** Checked between blocks; when it returns true the read stops with CANCELLED. */
   isCancelled?: () => boolean;
+  /**
+   * Samples in SharedArrayBuffers, for worker threads to read without a copy (the batch CLI). WAV samples
+   * are decoded straight into them; CSV columns are copied once at the end.
+   */
+  shared?: boolean;
 }

@@ -20,6 +20,8 @@ export interface WavSampleRequest {
   channels: number[];
   onProgress?: ProgressCallback;
   isCancelled?: () => boolean;
+  /** Output channels in SharedArrayBuffers (DecodeOptions.shared). */
+  shared?: boolean;
 }
 
 /** Typed views need an offset that is a multiple of the element size; copy when the slice is not. */
@@ -34,7 +36,7 @@ export async function readWavSamples(
   const { layout, channelCount, frames, channels } = req;
   const bytesPerSample = layout.bitsPerSample / 8;
   const framesPerBlock = Math.max(1, Math.floor(BLOCK_BYTES / layout.blockAlign));
-  const out = channels.map(() => new Float32Array(frames));
+  const out = channels.map(() => (req.shared ? new Float32Array(new SharedArrayBuffer(frames * 4)) : new Float32Array(frames)));
   const bad = channels.map((channel) => ({ channel, count: 0, firstFrame: -1 }));
   const float = isFloat(layout);
 

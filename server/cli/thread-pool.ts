@@ -45,15 +45,20 @@ export class MapThreadPool {
     const layout = stftLayout(x.length, fsHz, settings);
     const samples = x.buffer instanceof SharedArrayBuffer ? x : shared(x);
     const power = new Float32Array(new SharedArrayBuffer(layout.frames * layout.bins * 4));
-    const perChunk = Math.max(1, Math.ceil(layout.frames / (this.workers.length * 4)));
-    await Promise.all(
-      frameChunks(layout.frames, perChunk).map(([from, to], i) => {
+    // Chunks go to whichever thread is free (a busy core no longer holds back a fixed share), two in
+    // flight per thread so none waits for its next message.
+    const chunks = frameChunks(layout.frames, Math.max(1, Math.ceil(layout.frames / (this.workers.length * 8))));
+    let next = 0;
+    const feed = async (w: Worker) => {
+      while (next < chunks.length) {
+        const [from, to] = chunks[next++];
         const id = this.next++;
         const done = new Promise<void>((resolve) => this.pending.set(id, resolve));
-        this.workers[i % this.workers.length].postMessage({ id, samples, map: power, layout, settings, from, to });
-        return done;
-      }),
-    );
+        w.postMessage({ id, samples, map: power, layout, settings, from, to });
+        await done;
+      }
+    };
+    await Promise.all(this.workers.flatMap((w) => [feed(w), feed(w)]));
     return { layout, power };
   }
 

@@ -45,7 +45,7 @@ export async function runMapBench(log: (line: string) => void): Promise<Record<s
   const figures: Record<string, number> = {};
   try {
     for (const [seconds, repeats] of [
-      [60, 7],
+      [60, 15],
       [600, 3],
     ] as const) {
       const x = signal(seconds);

@@ -70,6 +70,8 @@ async function loadPffft(): Promise<LoadedPffft | null> {
 
 /** Frames per batch copied into WASM memory at once are capped so the batch stays under 4 MB. */
 const BATCH_FLOATS = 1 << 20;
+/** Power rows per kernel call, capped at 1 MB of rows. */
+const ROW_FLOATS = 1 << 18;
 
 class PffftReal implements RealFft {
   readonly backend: FftBackend;
@@ -89,6 +91,7 @@ class PffftReal implements RealFft {
   private winOf: SpectralWindow | null = null;
   private batchPtr = 0;
   private batchFloats = 0;
+  private rowsPtr = 0;
   private powViews: Float32Array[] = [new Float32Array(0), new Float32Array(0)];
 
   constructor(
@@ -182,15 +185,35 @@ class PffftReal implements RealFft {
       this.batchPtr = this.m._pffft_aligned_malloc(need * 4);
       this.batchFloats = need;
     }
+    const half = n >> 1;
+    const rowsPer = Math.max(1, Math.floor(ROW_FLOATS / bins));
+    if (!this.rowsPtr) this.rowsPtr = this.m._pffft_aligned_malloc((rowsPer * bins + 2) * 4);
+    const c = win.spectralKernel;
+    let w = 0;
+    let c1 = 1;
+    let c0 = 0;
+    if (c.length <= 3) {
+      c1 = c.length === 3 ? c[1] : c[0];
+      c0 = c.length === 3 ? c[0] : 0;
+    } else {
+      if (this.winOf !== win) {
+        this.m.HEAPF32.set(win.w, this.winPtr >> 2);
+        this.winOf = win;
+      }
+      w = this.winPtr;
+    }
+    const k = this.kernel;
     for (let f0 = 0; f0 < count; f0 += per) {
       const frames = Math.min(per, count - f0);
       const s = start + f0 * hop;
       this.m.HEAPF32.set(x.subarray(s, s + (frames - 1) * hop + n), this.batchPtr >> 2);
-      for (let f = 0; f < frames; f++) {
-        const to = at + (f0 + f) * bins;
-        const row = this.row(out, to);
-        this.kernelFrame(this.batchPtr + f * hop * 4, row.ptr, win, scale, edgeScale);
-        out.set(row.view, to);
+      for (let g0 = 0; g0 < frames; g0 += rowsPer) {
+        const g = Math.min(rowsPer, frames - g0);
+        const to = at + (f0 + g0) * bins;
+        // rows start at the alignment mod 8 of their place in out (see row())
+        const dst = this.rowsPtr + 4 * (((out.byteOffset >> 2) + to) & 1);
+        k.frames(this.setup, this.batchPtr + g0 * hop * 4, hop * 4, g, this.outPtr, this.workPtr, w, this.inPtr, dst, half, c1, c0, scale, edgeScale);
+        out.set(this.m.HEAPF32.subarray(dst >> 2, (dst >> 2) + g * bins), to);
       }
     }
   }
@@ -345,7 +368,7 @@ class PffftReal implements RealFft {
   }
 
   dispose(): void {
-    for (const p of [this.powPtr, this.winPtr, this.batchPtr]) if (p) this.m._pffft_aligned_free(p);
+    for (const p of [this.powPtr, this.winPtr, this.batchPtr, this.rowsPtr]) if (p) this.m._pffft_aligned_free(p);
     this.m._pffft_aligned_free(this.inPtr);
     this.m._pffft_aligned_free(this.outPtr);
     this.m._pffft_aligned_free(this.workPtr);

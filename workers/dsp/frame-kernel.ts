@@ -15,6 +15,11 @@ import { base64 as framePowerBase64 } from './kernels/frame-power.wasm';
 export interface FrameKernel {
   narrowPower(y: number, out: number, half: number, c1: number, c0: number, scale: number, edge: number): void;
   multiply(src: number, w: number, dst: number, n: number): void;
+  /** A batch of frames: transform (through PFFFT's own export) and readout in one call. */
+  frames(
+    setup: number, src: number, hop: number, count: number, y: number, work: number, w: number, tmp: number,
+    out: number, half: number, c1: number, c0: number, scale: number, edge: number,
+  ): void;
 }
 
 const isNode = typeof process === 'object' && typeof process.versions?.node === 'string';
@@ -48,13 +53,15 @@ export async function loadPffftWithKernel(
     if (!WebAssembly.validate(kernelBytes)) return null; // no WASM SIMD here
     const compiled = await WebAssembly.compile(await pffftSimdBinary());
     let memory: WebAssembly.Memory | undefined;
+    let exported: unknown[] = [];
     let fail!: (e: unknown) => void;
     const failed = new Promise<never>((_, reject) => (fail = reject));
     const m = await Promise.race([
       factory({
         instantiateWasm(imports, receiveInstance) {
           WebAssembly.instantiate(compiled, imports).then((instance) => {
-            memory = Object.values(instance.exports).find((v): v is WebAssembly.Memory => v instanceof WebAssembly.Memory);
+            exported = Object.values(instance.exports);
+            memory = exported.find((v): v is WebAssembly.Memory => v instanceof WebAssembly.Memory);
             receiveInstance(instance, compiled);
           }, fail);
           return {};
@@ -63,7 +70,19 @@ export async function loadPffftWithKernel(
       failed,
     ]);
     if (!memory) return null;
-    const instance = await WebAssembly.instantiate(await WebAssembly.compile(kernelBytes), { env: { memory } });
+    // The glue's _pffft_transform_ordered replaces itself by the raw WASM export on its first call: make
+    // that call on a small setup, so the kernel imports the export itself (a direct WASM-to-WASM call).
+    const setup = m._pffft_new_setup(32, 0);
+    const buf = m._pffft_aligned_malloc(3 * 128);
+    m._pffft_transform_ordered(setup, buf, buf + 128, buf + 256, 0);
+    m._pffft_aligned_free(buf);
+    m._pffft_destroy_setup(setup);
+    const transform = m._pffft_transform_ordered;
+    if (!exported.includes(transform)) return null;
+    const instance = await WebAssembly.instantiate(await WebAssembly.compile(kernelBytes), {
+      env: { memory },
+      pffft: { transform_ordered: transform },
+    });
     return { m, kernel: instance.exports as unknown as FrameKernel };
   } catch {
     return null;

@@ -12,12 +12,42 @@
 ;;   y[0] = X[0], y[1] = X[H] (both real), y[2k] = Re X[k], y[2k+1] = Im X[k] for k = 1…H−1.
 (module
   (import "env" "memory" (memory 1))
+  ;; pffft_transform_ordered(setup, input, output, work, direction) of the same PFFFT instance
+  (import "pffft" "transform_ordered" (func $transform (param i32 i32 i32 i32 i32)))
+
+  ;; frames(setup, src, hop, count, y, work, w, tmp, out, h, c1, c0, scale, edge): `count` frames of
+  ;; N = 2h samples at src, src + hop, … (bytes; each 16-byte aligned): transformed by PFFFT into y (work
+  ;; its scratch), read out by narrowPower into rows of h + 1 floats from out. With w ≠ 0 each frame is
+  ;; first multiplied by the window at w into tmp (then c1 = 1, c0 = 0). One call per batch instead of
+  ;; three JavaScript-to-WASM calls per frame.
+  (func (export "frames")
+    (param $setup i32) (param $src i32) (param $hop i32) (param $count i32) (param $y i32) (param $work i32)
+    (param $w i32) (param $tmp i32) (param $out i32) (param $h i32)
+    (param $c1 f32) (param $c0 f32) (param $scale f32) (param $edge f32)
+    (local $row i32)
+    (local.set $row (i32.shl (i32.add (local.get $h) (i32.const 1)) (i32.const 2)))
+    (block $done
+      (loop $frame
+        (br_if $done (i32.eqz (local.get $count)))
+        (if (local.get $w)
+          (then
+            (call $multiply (local.get $src) (local.get $w) (local.get $tmp) (i32.shl (local.get $h) (i32.const 1)))
+            (call $transform (local.get $setup) (local.get $tmp) (local.get $y) (local.get $work) (i32.const 0)))
+          (else
+            (call $transform (local.get $setup) (local.get $src) (local.get $y) (local.get $work) (i32.const 0))))
+        (call $narrowPower (local.get $y) (local.get $out) (local.get $h)
+          (local.get $c1) (local.get $c0) (local.get $scale) (local.get $edge))
+        (local.set $src (i32.add (local.get $src) (local.get $hop)))
+        (local.set $out (i32.add (local.get $out) (local.get $row)))
+        (local.set $count (i32.sub (local.get $count) (i32.const 1)))
+        (br $frame)))
+  )
 
   ;; narrowPower(y, out, h, c1, c0, scale, edge): out[k] = |c1·X[k] + c0·(X[k−1] + X[k+1])|²·s for
   ;; k = 0…h, s = edge at k = 0 and k = h, scale elsewhere — a periodic window of at most two cosine terms
   ;; (rect c0 = 0; Hann, Hamming) applied by convolution in the frequency domain (Harris 1978, §V),
   ;; with X[−1] = conj X[1] and X[h+1] = conj X[h−1]. y and out are byte addresses; h ≥ 8 and h mod 4 = 0.
-  (func (export "narrowPower")
+  (func $narrowPower (export "narrowPower")
     (param $y i32) (param $out i32) (param $h i32)
     (param $c1 f32) (param $c0 f32) (param $scale f32) (param $edge f32)
     (local $x0 f32) (local $xh f32) (local $r1 f32) (local $i1 f32)
@@ -108,7 +138,7 @@
 
   ;; multiply(src, w, dst, n): dst[i] = src[i]·w[i], i = 0…n−1 (n mod 4 = 0): a window applied in time,
   ;; for the windows of more than two cosine terms. Byte addresses; src need not be aligned.
-  (func (export "multiply") (param $src i32) (param $w i32) (param $dst i32) (param $n i32)
+  (func $multiply (export "multiply") (param $src i32) (param $w i32) (param $dst i32) (param $n i32)
     (local $end i32)
     (local.set $end (i32.add (local.get $dst) (i32.shl (local.get $n) (i32.const 2))))
     (block $done

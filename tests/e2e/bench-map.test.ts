@@ -92,6 +92,8 @@ describe('the Bench computes the map of the open recording (browser)', () => {
     const done = page.getByTestId('map-done');
     await expect.poll(() => done.isVisible(), { timeout: 30_000 }).toBe(true);
     expect(await progress.count()).toBe(0);
+    // computed in the analysis workers by PFFFT (WASM SIMD) with the WASM readout kernel, not a fallback
+    expect(await done.getAttribute('data-engine')).toBe('pffft-simd+kernel');
     expect(await map.getByLabel('Window').inputValue()).toBe('hann');
     expect(await map.getByLabel('Block size').inputValue()).toBe('8192');
     expect(await map.getByLabel('Overlap').inputValue()).toBe('0.75');

@@ -22,8 +22,11 @@ export interface MapChunkResult {
   to: number;
   /** (to − from) × bins mean-square powers */
   power: Float32Array;
+  /** The FFT that computed it, and '+kernel' when the WASM readout kernel read the powers out */
   backend: string;
 }
+
+const engineOf = (fft: RealFft) => (fft.readout === 'wasm-kernel' ? `${fft.backend}+kernel` : fft.backend);
 
 /** The sample range frames [from, to) read: a worker is sent only these. */
 export function chunkSampleRange(layout: StftLayout, from: number, to: number): [number, number] {
@@ -46,7 +49,7 @@ export async function computeMapChunk(req: MapChunkRequest): Promise<MapChunkRes
   const { fft, win } = await tools(req);
   const power = new Float32Array((req.to - req.from) * req.layout.bins);
   computeFrames(req.samples, req.x0, req.layout, win, fft, req.from, req.to, power);
-  return { from: req.from, to: req.to, power, backend: fft.backend };
+  return { from: req.from, to: req.to, power, backend: engineOf(fft) };
 }
 
 /**
@@ -56,7 +59,7 @@ export async function computeMapChunk(req: MapChunkRequest): Promise<MapChunkRes
 export async function computeMapChunkShared(req: Omit<MapChunkRequest, 'x0'> & { map: Float32Array }): Promise<string> {
   const { fft, win } = await tools(req);
   computeFrames(req.samples, 0, req.layout, win, fft, req.from, req.to, req.map.subarray(req.from * req.layout.bins, req.to * req.layout.bins));
-  return fft.backend;
+  return engineOf(fft);
 }
 
 /** Splits frames into chunks of about `framesPerChunk`, in order, so a map can paint as they arrive. */

@@ -24,6 +24,8 @@ export interface MapJob {
   /** Resolves once every chunk has been delivered; rejects on an error, or with an AbortError on cancel. */
   done: Promise<void>;
   cancel(): void;
+  /** The FFT routes the chunks so far were computed by ("pffft-simd+kernel", "fft.js"…) */
+  engines: ReadonlySet<string>;
 }
 
 /** Chunks a worker may hold at once: one computing, one waiting, so it never idles on a round trip. */
@@ -45,6 +47,7 @@ interface Slot {
 }
 
 interface Job {
+  engines: Set<string>;
   samples: Float32Array;
   scale: number;
   settings: StftSettings;
@@ -177,6 +180,7 @@ function send(slot: Slot, job: Job, index: number) {
     .then(
       (result) => {
         if (!settle()) return;
+        job.engines.add(result.backend);
         accept(job, index, result.power);
         pump();
       },
@@ -208,6 +212,7 @@ async function runInline(job: Job) {
         const [s0, s1] = chunkSampleRange(layout, f, g);
         const part = await computeMapChunk({ samples: sliceScaled(job.samples, s0, s1, job.scale), x0: s0, layout, settings, from: f, to: g });
         power.set(part.power, (f - from) * layout.bins);
+        job.engines.add(part.backend);
       }
       accept(job, index, power);
     }
@@ -293,6 +298,7 @@ export function startMap(
   // A caller that drops the promise after cancelling should not see an unhandled rejection.
   done.catch(() => undefined);
   const job: Job = {
+    engines: new Set(),
     samples,
     scale: options.scale ?? 1,
     settings: { ...settings },
@@ -318,5 +324,5 @@ export function startMap(
     active.push(job);
     pump();
   }
-  return { layout, done, cancel: () => end(job, abortError()) };
+  return { layout, done, cancel: () => end(job, abortError()), engines: job.engines };
 }

@@ -274,7 +274,7 @@ export function MapPanel(p: MapPanelProps) {
             </>
           )}
           {status.kind === 'done' && layout && (
-            <p className="text-xs text-mist-500" data-testid="map-done">
+            <p className="text-xs text-mist-500" data-testid="map-done" data-engine={status.engine}>
               {layout.frames} spectra of {fmt(layout.blockSize / p.fsHz, 3)} s, {windowLabel[p.windowName]} window.
             </p>
           )}

@@ -17,7 +17,8 @@ export interface MapRequest {
 export type MapStatus =
   | { kind: 'idle' }
   | { kind: 'computing'; fraction: number }
-  | { kind: 'done' }
+  /** engine: the FFT routes that computed it, for the status line */
+  | { kind: 'done'; engine: string }
   | { kind: 'cancelled'; fraction: number }
   | { kind: 'error'; message: string };
 
@@ -105,7 +106,7 @@ export function useMapComputation(req: MapRequest) {
     setPeakTopDb(null);
     setStatus({ kind: 'computing', fraction: 0 });
     current.done.then(
-      () => job.current === current && setStatus({ kind: 'done' }),
+      () => job.current === current && setStatus({ kind: 'done', engine: [...current.engines].join(' ') }),
       (e: unknown) => {
         if (job.current !== current) return;
         if (e instanceof Error && e.name === 'AbortError') setStatus({ kind: 'cancelled', fraction: fraction.current });

@@ -1,13 +1,9 @@
 /**
- * Serves the built client and the API from one in-process server on a free loopback port for the browser
- * tests; they read its address with inject('baseUrl'). The server listens first so that the links in
- * mail (PUBLIC_ORIGIN) point at the real port.
+ * One app server (tests/e2e/app-server.ts) for all the browser tests; they read its address with
+ * inject('baseUrl').
  */
-import { createServer } from 'node:http';
 import type { TestProject } from 'vitest/node';
-import { createApp } from '../../server/app';
-import { loadConfig } from '../../server/config';
-import { createDb } from '../../server/db/knex';
+import { startAppServer } from './app-server';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -16,21 +12,7 @@ declare module 'vitest' {
 }
 
 export default async function setup(project: TestProject) {
-  const server = createServer();
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', () => resolve()));
-  const address = server.address();
-  if (!address || typeof address === 'string') throw new Error('no address');
-  const baseUrl = `http://127.0.0.1:${address.port}`;
-  const config = { ...loadConfig({ ...process.env, NODE_ENV: 'test' }), publicOrigin: baseUrl };
-  const db = createDb(config.db);
-  const fanlight = createApp({ config, db });
-  server.on('request', fanlight.app);
-  project.provide('baseUrl', baseUrl);
-  return async () => {
-    const closed = new Promise<void>((resolve) => server.close(() => resolve()));
-    server.closeAllConnections();
-    await closed;
-    fanlight.close();
-    await db.destroy();
-  };
+  const server = await startAppServer();
+  project.provide('baseUrl', server.baseUrl);
+  return () => server.stop();
 }

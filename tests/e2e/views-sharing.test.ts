@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { SNAPSHOT_CONTENT_TYPE, type SnapshotHeader } from '../../server/schemas/views';
 import { encodeSnapshot, quantiseDb } from '../../server/services/snapshot-codec';
 import { demoProject } from '../../seeds/demo-scenario';
+import { startAppServer } from './app-server';
 import { canvasPixels, launchBrowser, screenshot, signIn } from './browser';
 
 const W = 480;
@@ -337,5 +338,34 @@ describe('views, marks, threads and share links (browser)', () => {
     await lead.getByLabel('Archived').selectOption('exclude');
     await expect.poll(() => table.getByRole('link', { name: title }).isVisible()).toBe(true);
     await leadContext.close();
+  });
+
+  it('a view saved before the server restarts opens after it, with its snapshot, mark and reply, in the same session', async () => {
+    // A server of this test's own, so that it can be stopped and a new one started on the same port.
+    let server = await startAppServer();
+    const port = server.port;
+    const title = `Saved before a restart ${stamp()}`;
+    const reply = 'Still here after the restart?';
+    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+    try {
+      const engineer = await context.newPage();
+      await signIn(engineer, server.baseUrl, 'engineer@fanlight.test');
+      await engineer.waitForURL(`${server.baseUrl}/projects`);
+      const { viewId, markId } = await seedView(engineer, title);
+      expect((await api(engineer, 'POST', `/marks/${markId}/comments`, { body: reply })).status).toBe(201);
+
+      await server.stop();
+      server = await startAppServer(port);
+
+      await engineer.goto(`${server.baseUrl}/views/${viewId}?mark=${markId}`);
+      await expect.poll(() => engineer.getByRole('heading', { name: title }).isVisible(), { timeout: 15_000 }).toBe(true);
+      expect(new URL(engineer.url()).pathname).toBe(`/views/${viewId}`); // the session survived: no sign-in page
+      await expectPainted(engineer);
+      await expect.poll(() => engineer.getByTestId(`mark-shape-${markId}`).isVisible()).toBe(true);
+      await expect.poll(() => engineer.locator('[id^="comment-"]').filter({ hasText: reply }).isVisible()).toBe(true);
+    } finally {
+      await context.close();
+      await server.stop();
+    }
   });
 });

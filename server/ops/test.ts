@@ -13,6 +13,7 @@ import { DATA_DIR, PROJECT_ROOT, loadConfig } from '../config';
 import { buildClientIfStale } from './client-build';
 import { prepareDatabase } from './database';
 import { prepareDemoRecordings } from './demo-files';
+import { holdRunLock } from './run-lock';
 import { startMailFakeIfWanted } from './mail-fake';
 import { onShutdown, shutdown } from './shutdown';
 
@@ -33,6 +34,7 @@ interface VitestJsonReport {
 const bin = (name: string) => path.join(PROJECT_ROOT, 'node_modules', '.bin', name);
 const config = loadConfig();
 
+await holdRunLock('test');
 console.log(`fanlight test: starting the test MariaDB on 127.0.0.1:${config.db.port}`);
 const { mariadb } = await prepareDatabase('test', config.db, { recreate: true });
 onShutdown(() => mariadb.stop());

@@ -41,7 +41,15 @@ export async function startSmtpFake(port: number, outboxDir: string): Promise<Sm
   });
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
-    server.listen(port, '127.0.0.1', () => resolve());
+    server.listen(port, '127.0.0.1', () => {
+      server.off('error', reject);
+      resolve();
+    });
+  });
+  // smtp-server reports a client's dropped connection (ECONNRESET when an app closes its mail pool) as
+  // an 'error' event; with no listener that would throw and take the whole process down.
+  server.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code !== 'ECONNRESET' && e.code !== 'EPIPE') console.error('fanlight mail fake:', e.message);
   });
   const address = server.server.address();
   return {

@@ -88,10 +88,12 @@ describe('the Bench as a workbench (browser)', () => {
     expect(Math.abs(Number(lo) - 1000)).toBeLessThan(60);
     expect(Math.abs(Number(hi) - 9000)).toBeLessThan(60);
 
-    // The findings with the speed: pole pairs inferred from the sideband spacing (the families of this
-    // run leave them ambiguous), then typed.
+    // The findings with the speed: pole pairs inferred from the sideband spacing. This run's one pair,
+    // fc ± fe, fits p = 4 (force pattern) or p = 2 (voltage pattern); the channel is an accelerometer,
+    // whose sidebands follow the force, so 4, with a note saying the channel chose it. Then typed.
     const poles = page.getByTestId('finding-pole-pairs');
-    await expect.poll(() => poles.textContent(), { timeout: 40_000 }).toMatch(/Pole pairs\s*\d+\s*\(inferred/);
+    await expect.poll(() => poles.textContent(), { timeout: 40_000 }).toMatch(/Pole pairs\s*4\s*\(inferred\)/);
+    expect(await page.getByTestId('pole-pairs-settled').textContent()).toContain("the channel's quantity chose this one");
     const speedPanel = page.getByRole('region', { name: 'Speed source' });
     await speedPanel.getByLabel('Pole pairs').selectOption('typed');
     await speedPanel.getByLabel('p', { exact: true }).fill('4');

@@ -28,6 +28,19 @@ export interface InverterAnalysisInput {
   tonalityAtS?: number;
   /** The channel is sound pressure in Pa: give the tones' levels against the threshold of hearing */
   soundPressure?: boolean;
+  /**
+   * The family pattern the channel's quantity carries, when known: 'm+n even' for vibration and sound
+   * (the force), 'm+n odd' for inverter voltage and phase current. Settles pole pairs that one
+   * sideband pair leaves between two answers (pole-pairs.ts).
+   */
+  expectedPattern?: FamilyPattern;
+}
+
+/** The pattern a channel of this quantity carries (see expectedPattern), or null when it does not say. */
+export function patternOfQuantity(quantity: string): FamilyPattern | null {
+  if (quantity === 'acceleration' || quantity === 'velocity' || quantity === 'sound-pressure') return 'm+n even';
+  if (quantity === 'voltage') return 'm+n odd';
+  return null;
 }
 
 export interface FamilyTrackReport {
@@ -47,7 +60,14 @@ export interface InverterReport {
   carrier: { t: number[]; hz: number[] };
   carrierShifts: { t: number; rpm: number; fromHz: number; toHz: number }[];
   carrierSpreadHz: number | null;
-  polePairs: { value: number | null; source: 'given' | 'inferred'; pattern: FamilyPattern | null; ambiguous: boolean };
+  polePairs: {
+    value: number | null;
+    source: 'given' | 'inferred';
+    pattern: FamilyPattern | null;
+    ambiguous: boolean;
+    /** The sidebands fitted two answers; the channel's quantity (expectedPattern) chose this one */
+    settledByChannel: boolean;
+  };
   orders: { order: number; rpm: number[]; rms: number[]; crossing: boolean[] }[];
   families: FamilyTrackReport[];
   /** Families ranked by their peak level */
@@ -69,10 +89,10 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   const spread = runSpreadHz(power, layout.bins, layout.binHz, carrier.hz, withCarrier);
 
   let pole: InverterReport['polePairs'];
-  if (input.polePairs) pole = { value: input.polePairs, source: 'given', pattern: null, ambiguous: false };
+  if (input.polePairs) pole = { value: input.polePairs, source: 'given', pattern: null, ambiguous: false, settledByChannel: false };
   else {
-    const est = inferPolePairs(observeSidebandOffsets(power, layout, carrier.hz, frameRpm));
-    pole = { value: est.value, source: 'inferred', pattern: est.pattern, ambiguous: est.ambiguous };
+    const est = inferPolePairs(observeSidebandOffsets(power, layout, carrier.hz, frameRpm), 12, input.expectedPattern ?? null);
+    pole = { value: est.value, source: 'inferred', pattern: est.pattern, ambiguous: est.ambiguous, settledByChannel: est.settledByChannel };
   }
   // With the pole pairs given, the pattern still comes from the offsets when they show one
   if (input.polePairs) {

@@ -8,7 +8,10 @@
  * are measured in shaft orders o = d/fr; a pole-pair count p and a pattern predict o = |n|·p for the
  * allowed n. Each candidate (p, pattern) scores the strength it explains, minus what it leaves
  * unexplained, minus its lowest predicted sidebands that are missing; the best wins, and a runner-up
- * within 10 % makes the answer ambiguous.
+ * within 10 % makes the answer ambiguous. One sideband pair often fits two answers of the two patterns
+ * (fc ± 4fr: p = 4 with n = ±1, m + n even, or p = 2 with n = ±2, m + n odd); when the caller knows which
+ * pattern its channel carries (a vibration or sound channel the force's, a voltage or current channel
+ * the inverter's), the one answer of that pattern among the tied settles it.
  * References: [1] D. G. Holmes, T. A. Lipo, Pulse Width Modulation for Power Converters, 2003, ch. 3.
  *   [2] the force-line table of the project's domain notes (derived from the phase sequence of each
  *   harmonic; common practice in the PWM-noise literature).
@@ -21,6 +24,8 @@ export interface PolePairEstimate {
   value: number | null;
   pattern: FamilyPattern | null;
   ambiguous: boolean;
+  /** The sidebands alone fitted answers of both patterns; the channel's expected pattern chose this one */
+  settledByChannel: boolean;
   /** Observed offsets in shaft orders with their strengths, at m = 1 and m = 2 */
   observed: { m: number; orders: number; strength: number }[];
 }
@@ -84,8 +89,12 @@ export function observeSidebandOffsets(
   return out;
 }
 
-export function inferPolePairs(observed: { m: number; orders: number; strength: number }[], maxPolePairs = 12): PolePairEstimate {
-  if (observed.length === 0) return { value: null, pattern: null, ambiguous: false, observed };
+export function inferPolePairs(
+  observed: { m: number; orders: number; strength: number }[],
+  maxPolePairs = 12,
+  expected: FamilyPattern | null = null,
+): PolePairEstimate {
+  if (observed.length === 0) return { value: null, pattern: null, ambiguous: false, settledByChannel: false, observed };
   const total = observed.reduce((s, o) => s + o.strength, 0);
   const meanStrength = total / observed.length;
   const candidates: { p: number; pattern: FamilyPattern; score: number }[] = [];
@@ -110,7 +119,17 @@ export function inferPolePairs(observed: { m: number; orders: number; strength: 
   }
   candidates.sort((a, b) => b.score - a.score);
   const [best, second] = candidates;
-  if (!(best.score > 0)) return { value: null, pattern: null, ambiguous: true, observed };
+  if (!(best.score > 0)) return { value: null, pattern: null, ambiguous: true, settledByChannel: false, observed };
   const ambiguous = second !== undefined && second.score > 0.9 * best.score;
-  return { value: best.p, pattern: best.pattern, ambiguous, observed };
+  if (ambiguous && expected) {
+    const tied = candidates.filter((c) => c.score > 0.9 * best.score);
+    const ofPattern = tied.filter((c) => c.pattern === expected);
+    const other = tied.filter((c) => c.pattern !== expected);
+    // settled only when the expected pattern has one answer among the tied, and the other pattern
+    // is what made it a tie
+    if (ofPattern.length === 1 && other.length > 0) {
+      return { value: ofPattern[0].p, pattern: expected, ambiguous: false, settledByChannel: true, observed };
+    }
+  }
+  return { value: best.p, pattern: best.pattern, ambiguous, settledByChannel: false, observed };
 }

@@ -1,10 +1,12 @@
 /**
  * `inverter FILE --channel I (--tacho J --ppr N | --speed-channel J [--speed-cal K]) [--pole-pairs P]
- * [--orders 8,48] [--families 1:2,1:-2,2:1] [--cal K] [--block N] [--at S] [--sound-pressure]`: carrier,
- * shifts, spread, pole pairs, the order and family tracks against speed, and the carrier tones'
- * tonality at S (ECMA-418-1; with --sound-pressure, in Pa, against the ISO 389-7 threshold).
+ * [--orders 8,48] [--families 1:2,1:-2,2:1] [--cal K] [--block N] [--at S] [--sound-pressure]
+ * [--quantity Q]`: carrier, shifts, spread, pole pairs, the order and family tracks against speed, and the
+ * carrier tones' tonality at S (ECMA-418-1; with --sound-pressure, in Pa, against the ISO 389-7
+ * threshold). --quantity (acceleration, velocity, sound-pressure, voltage, other) says which family
+ * pattern the channel carries, to settle pole pairs that one sideband pair leaves between two answers.
  */
-import { analyseInverter, type InverterReport } from '../../../workers/dsp/inverter-analysis';
+import { analyseInverter, patternOfQuantity, type InverterReport } from '../../../workers/dsp/inverter-analysis';
 import { rpmAtTimes } from '../../../workers/dsp/speed';
 import { frameTimeS } from '../../../workers/dsp/stft';
 import { makeWindow } from '../../../workers/dsp/window';
@@ -35,6 +37,8 @@ export async function inverterCommand(file: string, o: Options): Promise<Omit<In
     const m = /^(\d+):(-?\d+)$/.exec(s);
     return m && Number(m[1]) >= 1 ? { m: Number(m[1]), n: Number(m[2]) } : null;
   });
+  const quantity = o.choice('quantity', ['acceleration', 'velocity', 'sound-pressure', 'voltage', 'other'] as const, o.has('sound-pressure') ? 'sound-pressure' : 'other');
+  const expectedPattern = patternOfQuantity(quantity) ?? undefined;
   const curve = await speedCurveFrom(file, o, 'speed-cal');
   const rec = await readChannels(file, [channel]);
   const x = scaled(rec.samples[0], calibrationFactor(o));
@@ -55,6 +59,7 @@ export async function inverterCommand(file: string, o: Options): Promise<Omit<In
       families,
       tonalityAtS: o.has('at') ? o.number('at') : undefined,
       soundPressure: o.has('sound-pressure'),
+      expectedPattern,
     });
     return {
       ...report,

@@ -35,6 +35,24 @@ const vib = synthesiseDrive({
 // acceleration in g as the file's unit; --cal 9.80665 turns it into m/s²
 writeFileSync(file, writeWav([vib, synthesiseTacho(FS, T, rpm, 60)], { sampleRateHz: FS, bits: 32, float: true }));
 
+// one sideband pair only: fc ± 4fr fits p = 4 (n = ±1, force pattern) and p = 2 (n = ±2, voltage pattern)
+const onePairFile = path.join(dir, 'one-pair.wav');
+const onePair = synthesiseDrive({
+  fsHz: FS,
+  durationS: T,
+  rpm,
+  polePairs: 4,
+  carrierHz: () => 10000,
+  orders: [],
+  families: [
+    { m: 1, n: 1, amplitude: 0.02 },
+    { m: 1, n: -1, amplitude: 0.02 },
+  ],
+  noiseRms: 0.002,
+  seed: 13,
+});
+writeFileSync(onePairFile, writeWav([onePair, synthesiseTacho(FS, T, rpm, 60)], { sampleRateHz: FS, bits: 32, float: true }));
+
 async function analyze(...args: string[]) {
   const { stdout } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT, maxBuffer: 64 << 20 });
   return JSON.parse(stdout);
@@ -67,5 +85,17 @@ describe('analyze inverter', () => {
     expect(r.families.map((f: { m: number; n: number }) => `${f.m}:${f.n}`)).toEqual(['1:1', '1:-1', '2:0']);
     const f = r.families[0];
     expect(f.hz.length).toBe(f.rpm.length);
+  });
+
+  it('settles one sideband pair by the channel quantity, and says so', async () => {
+    const base = ['inverter', onePairFile, '--channel', '0', '--tacho', '1', '--ppr', '60'];
+    const alone = await analyze(...base);
+    expect(alone.polePairs).toMatchObject({ ambiguous: true, settledByChannel: false });
+    const vibration = await analyze(...base, '--quantity', 'acceleration');
+    expect(vibration.polePairs).toEqual({ value: 4, source: 'inferred', pattern: 'm+n even', ambiguous: false, settledByChannel: true });
+    await expect(run('npm', ['run', '-s', 'analyze', '--', ...base, '--quantity', 'torque'], { cwd: PROJECT_ROOT })).rejects.toMatchObject({
+      code: 2,
+      stderr: expect.stringContaining('--quantity must be one of acceleration, velocity, sound-pressure, voltage, other, not "torque"'),
+    });
   });
 });

@@ -17,7 +17,7 @@ const db = (x: number) => 20 * Math.log10(x);
 async function analyse(
   x: Float32Array,
   rpm: (t: number) => number,
-  extra: { polePairs?: number; orders?: number[]; soundPressure?: boolean; tonalityAtS?: number } = {},
+  extra: { polePairs?: number; orders?: number[]; soundPressure?: boolean; tonalityAtS?: number; expectedPattern?: 'm+n odd' | 'm+n even' } = {},
 ) {
   const layout = stftLayout(x.length, FS, { window: 'hann', blockSize: 8192, overlap: 0.75 });
   const win = makeWindow('hann', 8192);
@@ -81,7 +81,7 @@ describe('a run-up with a carrier schedule, measured by vibration (m + n even)',
   });
 
   it('infers 4 pole pairs and the force pattern m + n even from the sideband offsets', () => {
-    expect(report.polePairs).toEqual({ value: 4, source: 'inferred', pattern: 'm+n even', ambiguous: false });
+    expect(report.polePairs).toEqual({ value: 4, source: 'inferred', pattern: 'm+n even', ambiguous: false, settledByChannel: false });
   });
 
   it('tracks orders within 0.5 dB of A/√2, flagging where a family crosses', () => {
@@ -100,6 +100,67 @@ describe('a run-up with a carrier schedule, measured by vibration (m + n even)',
     expect(top).toEqual(['1:-1', '1:1']);
     // a family the pattern forbids is reported as not explained
     expect(report.families.find((r) => r.m === 1 && r.n === 2)!.explained).toBe(false);
+  });
+});
+
+describe('one sideband pair only, fc ± 4fr: p = 4 with n = ±1 (force) or p = 2 with n = ±2 (voltage)', async () => {
+  // Both readings are allowed by the patterns (m + n even for the force, m + n odd for the voltage:
+  // Holmes & Lipo 2003, ch. 3, and the force table it leads to); the sidebands cannot tell them apart.
+  const T = 12;
+  const rpm = (t: number) => 1000 + (8000 * t) / T;
+  const x = synthesiseDrive({
+    fsHz: FS,
+    durationS: T,
+    rpm,
+    polePairs: 4,
+    carrierHz: () => 10000,
+    families: [
+      { m: 1, n: 1, amplitude: 0.02 },
+      { m: 1, n: -1, amplitude: 0.02 },
+    ],
+    orders: [],
+    noiseRms: 0.002,
+    seed: 9,
+  });
+  const alone = (await analyse(x, rpm)).report.polePairs;
+  const vibration = (await analyse(x, rpm, { expectedPattern: 'm+n even' })).report.polePairs;
+  const voltage = (await analyse(x, rpm, { expectedPattern: 'm+n odd' })).report.polePairs;
+
+  it('says so when nothing else is known', () => {
+    expect(alone.ambiguous).toBe(true);
+    expect(alone.settledByChannel).toBe(false);
+    expect([2, 4]).toContain(alone.value);
+  });
+
+  it('takes 4 on a vibration or sound channel (the force pattern), and says the channel chose it', () => {
+    expect(vibration).toEqual({ value: 4, source: 'inferred', pattern: 'm+n even', ambiguous: false, settledByChannel: true });
+  });
+
+  it('takes 2 on a voltage channel (the inverter pattern)', () => {
+    expect(voltage).toEqual({ value: 2, source: 'inferred', pattern: 'm+n odd', ambiguous: false, settledByChannel: true });
+  });
+
+  it('does not let the channel override sidebands that settle it on their own', async () => {
+    const clear = synthesiseDrive({
+      fsHz: FS,
+      durationS: T,
+      rpm,
+      polePairs: 4,
+      carrierHz: () => 10000,
+      families: [
+        { m: 1, n: 1, amplitude: 0.02 },
+        { m: 1, n: -1, amplitude: 0.02 },
+        { m: 1, n: 3, amplitude: 0.01 },
+        { m: 1, n: -3, amplitude: 0.01 },
+        { m: 2, n: 2, amplitude: 0.01 },
+        { m: 2, n: -2, amplitude: 0.01 },
+      ],
+      orders: [],
+      noiseRms: 0.002,
+      seed: 11,
+    });
+    const p = (await analyse(clear, rpm, { expectedPattern: 'm+n odd' })).report.polePairs;
+    expect(p).toMatchObject({ value: 4, pattern: 'm+n even', ambiguous: false, settledByChannel: false });
   });
 });
 

@@ -137,6 +137,11 @@ export const FindingsPanel = memo(function FindingsPanel(p: FindingsPanelProps) 
                   {r.polePairs.ambiguous ? ', ambiguous' : ''})
                 </span>
               </p>
+              {r.polePairs.settledByChannel && (
+                <p className="text-mist-500" data-testid="pole-pairs-settled">
+                  The sidebands alone also fit {r.polePairs.pattern === 'm+n even' ? 'the voltage pattern' : 'the force pattern'}; the channel's quantity chose this one. Type the pole pairs if you know them.
+                </p>
+              )}
               <p className="text-mist-500">
                 {r.polePairs.pattern
                   ? `Families follow m + n ${r.polePairs.pattern === 'm+n odd' ? 'odd (as in voltage and current)' : 'even (as in the force: vibration and sound)'}.`

@@ -8,6 +8,8 @@ export type PoleChoice = { mode: 'inferred' } | { mode: 'typed'; value: number }
 export interface InferredPoles {
   value: number | null;
   ambiguous: boolean;
+  /** The channel's quantity chose between two answers the sidebands allowed */
+  settledByChannel?: boolean;
   pattern: string | null;
   pending: boolean;
 }
@@ -193,7 +195,7 @@ export function SpeedSourceForm({
           : inferred.pending
             ? 'Inferred from the sideband spacing once the findings are in.'
             : inferred.value
-              ? `Inferred from the sideband spacing: ${inferred.value}${inferred.ambiguous ? ' (ambiguous: check it)' : ''}.`
+              ? `Inferred from the sideband spacing: ${inferred.value}${inferred.ambiguous ? ' (ambiguous: check it)' : inferred.settledByChannel ? ' (with the channel’s quantity choosing between two fits: check it)' : ''}.`
               : 'Not inferred: no sideband families were found. Type it to draw the families.'}
       </p>
     </div>

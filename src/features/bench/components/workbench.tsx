@@ -1,4 +1,5 @@
 import { useCallback, useEffect, useMemo, useReducer, useRef, useState, type ReactNode } from 'react';
+import { patternOfQuantity } from '../../../../workers/dsp/inverter-analysis';
 import { rpmAtTimes } from '../../../../workers/dsp/speed';
 import { makeWindow } from '../../../../workers/dsp/window';
 import { calibrationProblem, unitsPerFileUnit } from '../../../../workers/io/channel-setup';
@@ -120,7 +121,7 @@ export function Workbench({
   const typedPoles = poles.mode === 'typed' && Number.isInteger(poles.value) && poles.value >= 1 ? poles.value : null;
   const [guides, dispatch] = useReducer(guidesReducer, restore?.guides ?? initialGuides);
   const orderKs = guides.orders.filter((o) => !o.hidden).map((o) => o.order).join(',');
-  const findings = useFindings(map.power, done, frameRpm, s.windowName, enbwBins, typedPoles, orderKs);
+  const findings = useFindings(map.power, done, frameRpm, s.windowName, enbwBins, typedPoles, orderKs, patternOfQuantity(channelSetup?.quantity ?? 'other'));
   const report = findings.kind === 'done' ? findings.value : null;
   const polePairs = typedPoles ?? report?.polePairs.value ?? null;
   const detectedHz = useMemo(() => (report && report.carrier.hz.some((h) => Number.isFinite(h)) ? Float64Array.from(report.carrier.hz) : null), [report]);
@@ -402,6 +403,7 @@ export function Workbench({
               inferred={{
                 value: report && report.polePairs.source === 'inferred' ? report.polePairs.value : null,
                 ambiguous: report?.polePairs.ambiguous ?? false,
+                settledByChannel: report?.polePairs.settledByChannel ?? false,
                 pattern: report?.polePairs.pattern ?? null,
                 pending: findings.kind !== 'done',
               }}

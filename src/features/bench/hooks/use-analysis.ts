@@ -2,6 +2,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import * as Comlink from 'comlink';
 import { speedMapTask } from '../../../../workers/analysis.worker';
 import { analyseInverter, type InverterAnalysisInput, type InverterReport } from '../../../../workers/dsp/inverter-analysis';
+import type { FamilyPattern } from '../../../../workers/dsp/pole-pairs';
 import type { SpeedMap } from '../../../../workers/dsp/speed-map';
 import type { Weighting } from '../../../../workers/dsp/weighting';
 import type { WindowName } from '../../../../workers/dsp/window';
@@ -69,6 +70,8 @@ export function useFindings(
   polePairs: number | null,
   /** Order guides: a family point they cross is flagged, and not taken as its peak */
   orders: string,
+  /** The family pattern the map channel's quantity carries (patternOfQuantity), if it says */
+  expectedPattern: FamilyPattern | null = null,
 ): TaskState<InverterReport> {
   const [state, setState] = useState<TaskState<InverterReport>>({ kind: 'idle' });
   const doneFor = useRef<MapPower | null>(null);
@@ -85,6 +88,7 @@ export function useFindings(
       frameRpm: frameRpm ? frameRpm.slice() : new Float64Array(power.layout.frames).fill(NaN),
       ...(polePairs ? { polePairs } : {}),
       orders: orders ? orders.split(',').map(Number) : [],
+      ...(expectedPattern ? { expectedPattern } : {}),
     });
     let job: { cancel(): void } | null = null;
     // The last findings of the same map stay up while newer ones are computed.
@@ -111,6 +115,6 @@ export function useFindings(
       clearTimeout(timer);
       job?.cancel();
     };
-  }, [power, ready, frameRpm, window, enbwBins, polePairs, orders]);
+  }, [power, ready, frameRpm, window, enbwBins, polePairs, orders, expectedPattern]);
   return state;
 }

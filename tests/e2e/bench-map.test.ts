@@ -177,4 +177,36 @@ describe('the Bench computes the map of the open recording (browser)', () => {
     expect(errors).toEqual([]);
     await context.close();
   });
+
+  it('keeps a typed speed ramp with the recording: it opens with it again from the library', async () => {
+    const context = await browser.newContext({ viewport: { width: 1600, height: 1000 } });
+    const page = await context.newPage();
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await signIn(page, baseUrl, 'engineer@fanlight.test');
+    await page.waitForURL(`${baseUrl}/projects`);
+    await page.goto(`${baseUrl}/bench`);
+    const [sweep] = sweepRecording();
+    const name = `ramp-${Date.now()}.wav`;
+    await page.getByTestId('drop-zone-input').setInputFiles({ name, mimeType: 'audio/wav', buffer: Buffer.from(wav([sweep.subarray(0, FS_HZ * 2)], { bits: 24, sampleRateHz: FS_HZ })) });
+    await expect.poll(() => page.getByTestId('map-done').isVisible(), { timeout: 30_000 }).toBe(true);
+    const panel = page.getByRole('region', { name: 'Speed source' });
+    await panel.getByLabel('Speed from').selectOption('ramp');
+    await panel.getByLabel('Start (rpm)').fill('500');
+    await panel.getByLabel('End (rpm)').fill('4500');
+    await expect.poll(() => page.getByTestId('speed-summary').textContent(), { timeout: 20_000 }).toMatch(/500–4500 rpm/);
+    await page.waitForTimeout(800); // the choice is kept a moment after the last edit
+
+    await page.getByRole('button', { name: 'Close' }).click();
+    await expect.poll(() => page.getByTestId('bench-empty').isVisible()).toBe(true);
+    await page.reload();
+    await page.getByRole('button', { name, exact: true }).click();
+    await expect.poll(() => page.getByTestId('map-done').isVisible(), { timeout: 30_000 }).toBe(true);
+    expect(await panel.getByLabel('Speed from').inputValue()).toBe('ramp');
+    expect(await panel.getByLabel('Start (rpm)').inputValue()).toBe('500');
+    expect(await panel.getByLabel('End (rpm)').inputValue()).toBe('4500');
+    await expect.poll(() => page.getByTestId('speed-summary').textContent(), { timeout: 20_000 }).toMatch(/500–4500 rpm/);
+    expect(errors).toEqual([]);
+    await context.close();
+  });
 });

@@ -4,6 +4,7 @@
  */
 import { createStore, del, get, promisifyRequest, set, values, type UseStore } from 'idb-keyval';
 import type { ChannelSetup } from '../../../workers/io/channel-setup';
+import type { SpeedSource } from '../bench/hooks/use-speed-curve';
 import type { ChannelInfo, CsvOptions, RecordingFormat } from '../../../workers/io/recording';
 import { formatMegabytes } from '../../lib/format';
 
@@ -21,6 +22,8 @@ export interface LibraryEntry {
   addedAt: string;
   /** The CSV options the file was read with (e.g. a typed sample rate), so opening it again reads it the same way. */
   csv?: CsvOptions;
+  /** The speed source chosen on the Bench; absent, the Bench picks one from the setup */
+  speedSource?: SpeedSource;
 }
 
 export interface StorageEstimate {
@@ -65,16 +68,22 @@ function sameChannels(setup: ChannelSetup[], channels: ChannelInfo[]): boolean {
 }
 
 /**
- * Keeps the file and its description. A recording already in the library keeps its setup and the
- * date it was first added (unless it now reads as other channels, e.g. a CSV read with other options).
- * Returns the entry as stored.
+ * Keeps the file and its description. A recording already in the library keeps its setup, its speed
+ * source and the date it was first added (unless it now reads as other channels, e.g. a CSV read with
+ * other options). Returns the entry as stored.
  */
 export async function addToLibrary(entry: LibraryEntry, file: Blob): Promise<LibraryEntry> {
   const { entries, files } = db();
   const fp = entry.fingerprint;
   const old = await getEntry(fp);
+  const same = old !== undefined && sameChannels(old.setup, entry.channels);
   const stored: LibraryEntry = old
-    ? { ...entry, setup: sameChannels(old.setup, entry.channels) ? old.setup : entry.setup, addedAt: old.addedAt }
+    ? {
+        ...entry,
+        setup: same ? old.setup : entry.setup,
+        ...(same && old.speedSource && !entry.speedSource ? { speedSource: old.speedSource } : {}),
+        addedAt: old.addedAt,
+      }
     : entry;
   const fileWasThere = await hasFile(fp);
   try {
@@ -95,23 +104,30 @@ export async function addToLibrary(entry: LibraryEntry, file: Blob): Promise<Lib
   return stored;
 }
 
-export async function updateSetup(fingerprint: string, setup: ChannelSetup[]): Promise<LibraryEntry> {
+/** Changes a stored entry; `what` names the change in the errors ("setup", "speed source"). */
+async function changeEntry(fingerprint: string, what: string, change: (e: LibraryEntry) => LibraryEntry): Promise<LibraryEntry> {
   const entry = await getEntry(fingerprint);
-  if (!entry) throw new LibraryError('This recording is no longer in the library, so its setup cannot be saved.');
-  const next = { ...entry, setup };
+  if (!entry) throw new LibraryError(`This recording is no longer in the library, so its ${what} cannot be saved.`);
+  const next = change(entry);
   try {
     await set(fingerprint, next, db().entries);
   } catch (e) {
     if (isQuotaError(e)) {
       throw new LibraryError(
-        `There is no room left in this browser's storage to save the setup of ${entry.name}. Delete recordings from the library, or free space.`,
+        `There is no room left in this browser's storage to save the ${what} of ${entry.name}. Delete recordings from the library, or free space.`,
         { cause: e },
       );
     }
-    throw new LibraryError(`The setup of ${entry.name} could not be saved: ${describe(e)}`, { cause: e });
+    throw new LibraryError(`The ${what} of ${entry.name} could not be saved: ${describe(e)}`, { cause: e });
   }
   return next;
 }
+
+export const updateSetup = (fingerprint: string, setup: ChannelSetup[]) => changeEntry(fingerprint, 'setup', (e) => ({ ...e, setup }));
+
+/** Keeps the Bench's speed source with the recording (null: back to the one the setup suggests). */
+export const updateSpeedSource = (fingerprint: string, speedSource: SpeedSource | null) =>
+  changeEntry(fingerprint, 'speed source', ({ speedSource: _old, ...e }) => (speedSource ? { ...e, speedSource } : e));
 
 export async function removeFromLibrary(fingerprint: string): Promise<void> {
   const { entries, files } = db();

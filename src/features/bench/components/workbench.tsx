@@ -11,8 +11,9 @@ import { computeTracks, frameAt, frameAtRpm, frameTimes as frameTimesOf } from '
 import { useFindings, useSpeedMap } from '../hooks/use-analysis';
 import { useChannelSetup } from '../hooks/use-channel-setup';
 import { useMapComputation } from '../hooks/use-map-computation';
+import { useSpeedChoice } from '../hooks/use-speed-choice';
 import type { OpenRecording } from '../hooks/use-recording-reader';
-import { defaultSpeedSource, useSpeedCurve, type SpeedSource } from '../hooks/use-speed-curve';
+import { defaultSpeedSource, useSpeedCurve } from '../hooks/use-speed-curve';
 import { colourLut } from '../map/colour-scales';
 import { defaultFamilies, guidesReducer, initialGuides, resolveLines, uniqueLabels } from '../map/guides';
 import { dbUnit, levelReference } from '../map/level-reference';
@@ -73,7 +74,7 @@ export function Workbench({
   const stores = useMemo(createBenchStores, []);
 
   // Channels and speed
-  const [speedChoice, setSpeedChoice] = useState<SpeedSource | null>(restore?.speedSource ?? null);
+  const [speedChoice, setSpeedChoice, speedSaveError] = useSpeedChoice(recording.entry.fingerprint, setup, recording.entry.speedSource, restore?.speedSource);
   const speedSource = speedChoice ?? defaultSpeedSource(setup);
   const [poles, setPoles] = useState<PoleChoice>(restore?.poles ?? { mode: 'inferred' });
   const channels = useMemo(() => ({ indices: channelIndices, samples: channelSamples }), [channelIndices, channelSamples]);
@@ -408,6 +409,11 @@ export function Workbench({
                 pending: findings.kind !== 'done',
               }}
             />
+            {speedSaveError && (
+              <p className="mt-2 text-xs text-danger" role="alert">
+                {speedSaveError.message}
+              </p>
+            )}
           </BenchPanel>
         </div>
 

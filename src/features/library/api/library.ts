@@ -1,11 +1,13 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
+import type { SpeedSource } from '../../bench/hooks/use-speed-curve';
 import {
   addToLibrary,
   listLibrary,
   removeFromLibrary,
   storageEstimate,
   updateSetup,
+  updateSpeedSource,
   type LibraryEntry,
 } from '../library-store';
 
@@ -42,6 +44,14 @@ export function useUpdateSetup() {
   return useMutation({
     mutationFn: ({ fingerprint, setup }: { fingerprint: string; setup: ChannelSetup[] }) =>
       updateSetup(fingerprint, setup),
+    onSuccess: () => refreshLibrary(qc),
+  });
+}
+
+export function useUpdateSpeedSource() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: ({ fingerprint, speedSource }: { fingerprint: string; speedSource: SpeedSource | null }) => updateSpeedSource(fingerprint, speedSource),
     onSuccess: () => refreshLibrary(qc),
   });
 }

@@ -2,7 +2,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { wav } from '../unit/io/wav-fixtures';
 import path from 'node:path';
-import { ARTEFACTS_DIR, launchBrowser, screenshot, signIn } from './browser';
+import { ARTEFACTS_DIR, launchBrowser, screenshot, signedInPage, signIn } from './browser';
 
 const FS_HZ = 51200;
 const DURATION_S = 6;
@@ -76,13 +76,7 @@ describe('the Bench computes the map of the open recording (browser)', () => {
   afterAll(() => browser?.close());
 
   it('paints a sweep rising from left to right, reads it under the pointer and recomputes on a new window', async () => {
-    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
-    const page = await context.newPage();
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    await signIn(page, baseUrl, 'engineer@fanlight.test');
-    await page.waitForURL(`${baseUrl}/projects`);
-    await page.goto(`${baseUrl}/bench`);
+    const { context, page, errors } = await signedInPage(browser, baseUrl, 'engineer@fanlight.test', { viewport: { width: 1440, height: 1000 } });
 
     const bytes = wav(sweepRecording(), { bits: 24, sampleRateHz: FS_HZ });
     await page.getByTestId('drop-zone-input').setInputFiles({ name: 'sweep-run-up.wav', mimeType: 'audio/wav', buffer: Buffer.from(bytes) });
@@ -179,13 +173,7 @@ describe('the Bench computes the map of the open recording (browser)', () => {
   });
 
   it('keeps a typed speed ramp with the recording: it opens with it again from the library', async () => {
-    const context = await browser.newContext({ viewport: { width: 1600, height: 1000 } });
-    const page = await context.newPage();
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    await signIn(page, baseUrl, 'engineer@fanlight.test');
-    await page.waitForURL(`${baseUrl}/projects`);
-    await page.goto(`${baseUrl}/bench`);
+    const { context, page, errors } = await signedInPage(browser, baseUrl, 'engineer@fanlight.test', { viewport: { width: 1600, height: 1000 } });
     const [sweep] = sweepRecording();
     const name = `ramp-${Date.now()}.wav`;
     await page.getByTestId('drop-zone-input').setInputFiles({ name, mimeType: 'audio/wav', buffer: Buffer.from(wav([sweep.subarray(0, FS_HZ * 2)], { bits: 24, sampleRateHz: FS_HZ })) });

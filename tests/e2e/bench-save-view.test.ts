@@ -10,7 +10,7 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { demoProject } from '../../seeds/demo-scenario';
-import { canvasPixels, launchBrowser, screenshot, signIn } from './browser';
+import { canvasPixels, launchBrowser, screenshot, signedInPage, signIn } from './browser';
 import { runUpWav } from './run-up';
 
 const DURATION_S = 6;
@@ -41,13 +41,7 @@ describe('a finding from the Bench to a colleague and back (browser)', () => {
     const title = `Bench run-up ${Date.now().toString(36)}`;
     const markText = 'Carrier step heard on the rig';
     const fileName = `save-view-${Date.now()}.wav`;
-    const context = await browser.newContext({ viewport: { width: 1680, height: 1050 } });
-    const page = await context.newPage();
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    await signIn(page, baseUrl, 'engineer@fanlight.test');
-    await page.waitForURL(`${baseUrl}/projects`);
-    await page.goto(`${baseUrl}/bench`);
+    const { context, page, errors } = await signedInPage(browser, baseUrl, 'engineer@fanlight.test', { viewport: { width: 1680, height: 1050 } });
 
     await page.getByTestId('drop-zone-input').setInputFiles({ name: fileName, mimeType: 'audio/wav', buffer: Buffer.from(runUp()) });
     await expect.poll(() => page.getByTestId('channel-list').locator('tbody tr').count(), { timeout: 20_000 }).toBe(2);

@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { ARTEFACTS_DIR, launchBrowser, screenshot, signIn } from './browser';
+import { ARTEFACTS_DIR, launchBrowser, screenshot, signedInPage } from './browser';
 import { FS_HZ, runUpTimeline, runUpWav } from './run-up';
 
 const DURATION_S = 12;
@@ -63,13 +63,7 @@ describe('the Bench as a workbench (browser)', () => {
   afterAll(() => browser?.close());
 
   it('opens a run-up, takes the speed from the tacho, draws guides, reads them, finds the carrier shift and exports', { timeout: 150_000 }, async () => {
-    const context = await browser.newContext({ viewport: { width: 1680, height: 1050 }, acceptDownloads: true });
-    const page = await context.newPage();
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    await signIn(page, baseUrl, 'engineer@fanlight.test');
-    await page.waitForURL(`${baseUrl}/projects`);
-    await page.goto(`${baseUrl}/bench`);
+    const { context, page, errors } = await signedInPage(browser, baseUrl, 'engineer@fanlight.test', { viewport: { width: 1680, height: 1050 }, acceptDownloads: true });
 
     await page.getByTestId('drop-zone-input').setInputFiles({ name: 'drive-run-up.wav', mimeType: 'audio/wav', buffer: Buffer.from(runUp()) });
     await expect.poll(() => page.getByTestId('channel-list').locator('tbody tr').count(), { timeout: 20_000 }).toBe(2);

@@ -52,3 +52,23 @@ export function canvasPixels(page: Page, testId: string) {
     return { width, height, opaque: opaque / (width * height), colours: colours.size };
   }, testId);
 }
+
+/**
+ * A new browser context signed in as `email`, on `path` (the Bench unless told), with the page's
+ * uncaught errors collected in `errors`.
+ */
+export async function signedInPage(
+  browser: Browser,
+  baseUrl: string,
+  email: string,
+  options: { path?: string; viewport?: { width: number; height: number }; acceptDownloads?: boolean } = {},
+) {
+  const context = await browser.newContext({ viewport: options.viewport ?? { width: 1440, height: 1000 }, acceptDownloads: options.acceptDownloads });
+  const page = await context.newPage();
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await signIn(page, baseUrl, email);
+  await page.waitForURL(`${baseUrl}/projects`);
+  await page.goto(`${baseUrl}${options.path ?? '/bench'}`);
+  return { context, page, errors };
+}

@@ -133,31 +133,28 @@ export function SaveViewForm({
     return (await register.mutateAsync({ projectId: pid, body: body.data })).recording.id;
   };
 
-  const onSubmit = async (e: FormEvent) => {
-    e.preventDefault();
+  /** What is on screen now, with its snapshot header checked; null (and the reason shown) if there is none. */
+  const take = (): { taken: ViewCapture; header: SnapshotHeader } | null => {
     setOutcome(null);
     const taken = capture();
     if (typeof taken === 'string') {
       setOutcome({ tone: 'error', message: taken });
-      return;
+      return null;
     }
     const header = snapshotHeader.safeParse(taken.header);
     if (!header.success) {
       setOutcome({ tone: 'error', message: `The snapshot cannot be made: ${issuesText(header.error.issues)}` });
-      return;
+      return null;
     }
-    // The same check the server makes, before anything is sent.
-    const draft = createViewBody.safeParse({ title, recordingId: 1, state: taken.state });
-    if (!draft.success) {
-      setOutcome({ tone: 'error', message: issuesText(draft.error.issues) });
-      return;
-    }
+    return { taken, header: header.data };
+  };
+
+  /** Runs a save: writes the view, then its snapshot and the pending marks, and reports. */
+  const save = async (taken: ViewCapture, header: SnapshotHeader, writeView: () => Promise<ViewDetail>, refused: (e: ApiError) => string | null) => {
     setBusy(true);
     try {
-      const recordingId = await recordingIdIn(project.id);
-      const body = createViewBody.parse({ title, recordingId, state: taken.state });
-      const { view } = await api.post<{ view: ViewDetail }>(`/projects/${project.id}/views`, body);
-      await putSnapshot(view.id, encodeSnapshot(header.data, taken.map));
+      const view = await writeView();
+      await putSnapshot(view.id, encodeSnapshot(header, taken.map));
       const failed = await placeMarks(view.id, marks, taken.swapped);
       await qc.invalidateQueries({ queryKey: viewKeys.all });
       setOutcome({
@@ -168,71 +165,65 @@ export function SaveViewForm({
       });
       if (failed.length === 0) onSaved();
     } catch (err) {
-      const message =
-        err instanceof ApiError && err.status === 403
-          ? `Only the engineers and leads of ${project.name} can save views in it.`
-          : err instanceof Error
-            ? err.message
-            : String(err);
+      const message = (err instanceof ApiError ? refused(err) : null) ?? (err instanceof Error ? err.message : String(err));
       setOutcome({ tone: 'error', message });
     } finally {
       setBusy(false);
     }
   };
 
-  const saveChanges = async () => {
-    if (!fromView) return;
-    setOutcome(null);
-    const taken = capture();
-    if (typeof taken === 'string') {
-      setOutcome({ tone: 'error', message: taken });
+  const onSubmit = async (e: FormEvent) => {
+    e.preventDefault();
+    const now = take();
+    if (!now) return;
+    // The same check the server makes, before anything is sent.
+    const draft = createViewBody.safeParse({ title, recordingId: 1, state: now.taken.state });
+    if (!draft.success) {
+      setOutcome({ tone: 'error', message: issuesText(draft.error.issues) });
       return;
     }
+    await save(
+      now.taken,
+      now.header,
+      async () => {
+        const recordingId = await recordingIdIn(project.id);
+        const body = createViewBody.parse({ title, recordingId, state: now.taken.state });
+        return (await api.post<{ view: ViewDetail }>(`/projects/${project.id}/views`, body)).view;
+      },
+      (err) => (err.status === 403 ? `Only the engineers and leads of ${project.name} can save views in it.` : null),
+    );
+  };
+
+  const saveChanges = async () => {
+    if (!fromView) return;
+    const now = take();
+    if (!now) return;
     const saved = fromView.restore;
     // The view's marks sit in its axes: a save that turned or swapped them would misplace every one.
-    const against = (taken.state as { processing?: { against?: string } }).processing?.against;
-    if (taken.swapped !== saved.swapped || against !== saved.against) {
+    const against = (now.taken.state as { processing?: { against?: string } }).processing?.against;
+    if (now.taken.swapped !== saved.swapped || against !== saved.against) {
       setOutcome({
         tone: 'error',
         message: `The view's marks were placed on the map against ${saved.against}${saved.swapped ? ' with the axes swapped' : ''}; show it that way to save into the view, or save a new view.`,
       });
       return;
     }
-    const header = snapshotHeader.safeParse(taken.header);
-    if (!header.success) {
-      setOutcome({ tone: 'error', message: `The snapshot cannot be made: ${issuesText(header.error.issues)}` });
-      return;
-    }
-    const body = updateViewBody.safeParse({ version: fromVersion, ...(title.trim() ? { title } : {}), state: taken.state });
+    const body = updateViewBody.safeParse({ version: fromVersion, ...(title.trim() ? { title } : {}), state: now.taken.state });
     if (!body.success) {
       setOutcome({ tone: 'error', message: issuesText(body.error.issues) });
       return;
     }
-    setBusy(true);
-    try {
-      const { view } = await api.patch<{ view: ViewDetail }>(`/views/${fromView.view.id}`, body.data);
-      setFromVersion(view.version);
-      await putSnapshot(view.id, encodeSnapshot(header.data, taken.map));
-      const failed = await placeMarks(view.id, marks, taken.swapped);
-      await qc.invalidateQueries({ queryKey: viewKeys.all });
-      setOutcome({
-        tone: 'ok',
-        viewId: view.id,
-        title: view.title,
-        note: failed.length ? `${failed.length} of the marks could not be placed: ${failed[0]}` : undefined,
-      });
-      if (failed.length === 0) onSaved();
-    } catch (err) {
-      const message =
-        err instanceof ApiError && err.status === 409
-          ? 'Someone saved this view since you opened it here. Open it again from its page to see their changes, or save a new view.'
-          : err instanceof Error
-            ? err.message
-            : String(err);
-      setOutcome({ tone: 'error', message });
-    } finally {
-      setBusy(false);
-    }
+    await save(
+      now.taken,
+      now.header,
+      async () => {
+        const { view } = await api.patch<{ view: ViewDetail }>(`/views/${fromView.view.id}`, body.data);
+        setFromVersion(view.version);
+        return view;
+      },
+      (err) =>
+        err.status === 409 ? 'Someone saved this view since you opened it here. Open it again from its page to see their changes, or save a new view.' : null,
+    );
   };
 
   return (

@@ -6,11 +6,9 @@
  */
 import type { GuideRef, Mark, ViewDetail, ViewState } from '../../../../server/schemas/views';
 import { upgradeViewState } from '../../../../server/schemas/views';
-import type { Weighting } from '../../../../workers/dsp/weighting';
-import type { WindowName } from '../../../../workers/dsp/window';
+import type { InitialMapSettings } from '../components/map-settings';
 import type { PoleChoice } from '../components/speed-source';
 import type { SpeedSource } from '../hooks/use-speed-curve';
-import type { ColourScaleName } from '../map/colour-scales';
 import { scaleOrDefault } from '../../views/snapshot/paint';
 import { familyLabel, familyLineId, orderLabel, orderLineId, type CarrierGuideSpec, type Family, type GuidesState, type OrderGuideSpec } from '../map/guides';
 import type { Viewport } from '../map/viewport';
@@ -22,15 +20,8 @@ export interface ViewOnBench {
   restore: BenchRestore;
 }
 
-export interface BenchRestore {
-  channelIndex: number;
-  window: WindowName;
-  blockSize: number;
-  overlap: number;
-  weighting: Weighting;
-  colours: ColourScaleName;
-  topDb: number;
-  rangeDb: number;
+/** The map settings (channel, window, block, overlap, weighting, colours, level range) and the rest. */
+export interface BenchRestore extends InitialMapSettings {
   against: 'time' | 'speed';
   swapped: boolean;
   /** The zoom, in the map's terms */

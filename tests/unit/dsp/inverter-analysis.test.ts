@@ -108,20 +108,13 @@ describe('one sideband pair only, fc ± 4fr: p = 4 with n = ±1 (force) or p = 2
   // Holmes & Lipo 2003, ch. 3, and the force table it leads to); the sidebands cannot tell them apart.
   const T = 12;
   const rpm = (t: number) => 1000 + (8000 * t) / T;
-  const x = synthesiseDrive({
-    fsHz: FS,
-    durationS: T,
-    rpm,
-    polePairs: 4,
-    carrierHz: () => 10000,
-    families: [
-      { m: 1, n: 1, amplitude: 0.02 },
-      { m: 1, n: -1, amplitude: 0.02 },
-    ],
-    orders: [],
-    noiseRms: 0.002,
-    seed: 9,
-  });
+  const pair: FamilyComponent[] = [
+    { m: 1, n: 1, amplitude: 0.02 },
+    { m: 1, n: -1, amplitude: 0.02 },
+  ];
+  const drive = (families: FamilyComponent[], seed: number) =>
+    synthesiseDrive({ fsHz: FS, durationS: T, rpm, polePairs: 4, carrierHz: () => 10000, families, orders: [], noiseRms: 0.002, seed });
+  const x = drive(pair, 9);
   const alone = (await analyse(x, rpm)).report.polePairs;
   const vibration = (await analyse(x, rpm, { expectedPattern: 'm+n even' })).report.polePairs;
   const voltage = (await analyse(x, rpm, { expectedPattern: 'm+n odd' })).report.polePairs;
@@ -141,24 +134,16 @@ describe('one sideband pair only, fc ± 4fr: p = 4 with n = ±1 (force) or p = 2
   });
 
   it('does not let the channel override sidebands that settle it on their own', async () => {
-    const clear = synthesiseDrive({
-      fsHz: FS,
-      durationS: T,
-      rpm,
-      polePairs: 4,
-      carrierHz: () => 10000,
-      families: [
-        { m: 1, n: 1, amplitude: 0.02 },
-        { m: 1, n: -1, amplitude: 0.02 },
+    const clear = drive(
+      [
+        ...pair,
         { m: 1, n: 3, amplitude: 0.01 },
         { m: 1, n: -3, amplitude: 0.01 },
         { m: 2, n: 2, amplitude: 0.01 },
         { m: 2, n: -2, amplitude: 0.01 },
       ],
-      orders: [],
-      noiseRms: 0.002,
-      seed: 11,
-    });
+      11,
+    );
     const p = (await analyse(clear, rpm, { expectedPattern: 'm+n odd' })).report.polePairs;
     expect(p).toMatchObject({ value: 4, pattern: 'm+n even', ambiguous: false, settledByChannel: false });
   });

@@ -268,7 +268,7 @@ export function SaveViewForm({
         </Notice>
       )}
       <p className="text-xs text-mist-500">
-        Saves the settings, the visible window, the guides and {marks.length === 1 ? 'the pending mark' : `the ${marks.length} pending marks`} with a small picture of
+        Saves the settings, the visible window, the guides and {marks.length === 0 ? 'the marks you place (none yet)' : marks.length === 1 ? 'the pending mark' : `the ${marks.length} pending marks`} with a small picture of
         the map. The recording is registered with the project first if it is not yet.
       </p>
     </form>

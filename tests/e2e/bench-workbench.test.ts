@@ -106,6 +106,23 @@ describe('the Bench as a workbench (browser)', () => {
     await expect.poll(() => card.getByLabel('Track fc+fe').count()).toBe(1);
     await card.getByLabel('Track fc+fe').check();
 
+    // A centre picked on the map snaps to the line nearest the click: 2fc at 1.5 s (16 000 Hz; this
+    // run has no line at fc itself, only fc ± fe), clicked a little above it.
+    {
+      const canvas = page.getByTestId('map-canvas');
+      const box = (await canvas.boundingBox())!;
+      const [x0, x1] = await viewRange(page);
+      await guides.getByRole('button', { name: 'Pick on map' }).click();
+      await canvas.click({ position: { x: ((1.5 - x0) / (x1 - x0)) * box.width, y: (1 - 16080 / (FS_HZ / 2)) * box.height } });
+      await expect.poll(() => card.count()).toBe(2);
+      const picked = card.nth(1);
+      const title = (await picked.locator('p').first().textContent()) ?? '';
+      const [, hz] = /Carrier (\d+) Hz/.exec(title) ?? [];
+      expect(Math.abs(Number(hz) - 16000), title).toBeLessThanOrEqual(FS_HZ / 8192);
+      await picked.getByRole('button', { name: `Remove ${title}`, exact: true }).click();
+      await expect.poll(() => card.count()).toBe(1);
+    }
+
     // Orders 8 and 48, tracked.
     for (const k of ['8', '48']) {
       await guides.getByLabel('Order k').fill(k);

@@ -1,5 +1,6 @@
 import { useCallback, useEffect, useMemo, useReducer, useRef, useState, type ReactNode } from 'react';
-import { patternOfQuantity } from '../../../../workers/dsp/inverter-analysis';
+import { MAIN_LOBE_HALF_BINS, patternOfQuantity } from '../../../../workers/dsp/inverter-analysis';
+import { peakNear } from '../../../../workers/dsp/peak';
 import { rpmAtTimes } from '../../../../workers/dsp/speed';
 import { makeWindow } from '../../../../workers/dsp/window';
 import { calibrationProblem, unitsPerFileUnit } from '../../../../workers/io/channel-setup';
@@ -212,13 +213,29 @@ export function Workbench({
     (hz: number, source: 'typed' | 'detected') => dispatch({ type: 'add-carrier', source, centreHz: Math.round(hz), families: defaultFamilies(report && !report.polePairs.ambiguous ? report.polePairs.pattern : null) }),
     [report],
   );
+  // A picked centre snaps to the strongest line near the click, between bins (peakNear): within a
+  // main lobe or two, or about a hundredth of the visible frequency span (a few pixels), the wider.
   const onPick = useCallback(
     (fHz: number) => {
       const bin = layout?.binHz ?? 1;
-      addCarrierAt(Math.round(fHz / bin) * bin, 'typed');
+      let centre = Math.round(fHz / bin) * bin;
+      const at = stores.pointer.get();
+      const power = map.power;
+      if (power && at && at.frame >= 0 && at.frame < power.frames) {
+        const bins = power.layout.bins;
+        const row = power.power.subarray(at.frame * bins, (at.frame + 1) * bins);
+        const view = stores.viewport.get();
+        const reach = Math.max(2 * MAIN_LOBE_HALF_BINS[s.windowName], view ? (0.012 * (view.f[1] - view.f[0])) / bin : 0);
+        const peak = peakNear(row, fHz / bin, reach);
+        if (peak) {
+          centre = peak.bin * bin;
+          setNote(`The carrier guide snapped to the line at ${Math.round(centre)} Hz nearest the click (${Math.round(fHz)} Hz); type another centre in the guide if you meant another.`);
+        }
+      }
+      addCarrierAt(centre, 'typed');
       setMode('pan');
     },
-    [addCarrierAt, layout],
+    [addCarrierAt, layout, stores, map.power, s.windowName],
   );
   const onPin = useCallback(
     (x: number) => {

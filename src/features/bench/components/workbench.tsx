@@ -188,7 +188,9 @@ export function Workbench({
     [markText],
   );
   const savedMarks = useSavedMarksOnMap(fromView, against);
-  const shownMarks = useMemo(() => [...savedMarks.onMap, ...marks], [savedMarks.onMap, marks]);
+  // numbered as the view page will: the saved view's marks first, then these in the order placed
+  const firstPending = savedMarks.marks.length + 1;
+  const shownMarks = useMemo(() => [...savedMarks.onMap, ...marks.map((m, j) => ({ ...m, number: firstPending + j }))], [savedMarks.onMap, marks, firstPending]);
   const pinnedX = pinnedTimeS === null ? null : against === 'time' ? pinnedTimeS : layout && frameRpm ? frameRpm[frameAt(layout, pinnedTimeS)] : null;
 
   const probe = useCallback(
@@ -213,7 +215,7 @@ export function Workbench({
     (hz: number, source: 'typed' | 'detected') => dispatch({ type: 'add-carrier', source, centreHz: Math.round(hz), families: defaultFamilies(report && !report.polePairs.ambiguous ? report.polePairs.pattern : null) }),
     [report],
   );
-  // A picked centre snaps to the strongest line near the click, between bins (peakNear): within a
+  // A picked centre snaps to the line nearest the click, between bins (peakNear): within a
   // main lobe or two, or about a hundredth of the visible frequency span (a few pixels), the wider.
   const onPick = useCallback(
     (fHz: number) => {
@@ -349,7 +351,7 @@ export function Workbench({
   };
 
   const markTools =
-    mode === 'mark' || marks.length > 0 || savedMarks.onMap.length > 0 ? (
+    mode === 'mark' || marks.length > 0 || savedMarks.marks.length > 0 ? (
       <div className="flex flex-col gap-3 pl-16" data-testid="mark-tools">
         {fromView && <SavedMarks fromView={fromView} marks={savedMarks} against={restore?.against ?? against} />}
         <div className="flex flex-wrap items-end gap-3">
@@ -368,7 +370,7 @@ export function Workbench({
             <GuideMarkPicker guides={markableGuides(lines)} onMark={onMarkGuide} />
           </div>
         </div>
-        <PendingMarks marks={marks} firstNumber={savedMarks.onMap.length + 1} against={against} onChange={setMarks} />
+        <PendingMarks marks={marks} firstNumber={firstPending} against={against} onChange={setMarks} />
       </div>
     ) : null;
 

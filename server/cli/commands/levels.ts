@@ -38,10 +38,11 @@ export async function levelsCommand(file: string, o: Options) {
   return {
     weighting,
     overallDb: toDb(overallPower(avg, win.enbwBins), ref),
-    bands: bands.map((b, i) => ({
-      nominalHz: b.nominalHz,
-      centerHz: b.centerHz,
-      db: Number.isFinite(bandPower[i]) ? toDb(bandPower[i], ref) : null,
-    })),
+    // db is null for a band the spectrum does not reach (then beyondSpectrum) and for one with no energy
+    bands: bands.map((b, i) =>
+      Number.isFinite(bandPower[i])
+        ? { nominalHz: b.nominalHz, centerHz: b.centerHz, db: toDb(bandPower[i], ref) }
+        : { nominalHz: b.nominalHz, centerHz: b.centerHz, db: null, beyondSpectrum: true },
+    ),
   };
 }

@@ -59,6 +59,21 @@ describe('analyze: spectrum, levels, speed, map', () => {
     // re 20 µPa: +93.98 dB (ISO 1683 reference)
     expect(a.json.overallDb).toBeCloseTo(expected + 93.98, 1);
     expect(a.json.weighting).toBe('A');
+    // 51.2 kHz reaches every band up to 20 kHz (upper edge 22.4 kHz, IEC 61260-1)
+    expect(z.json.bands.some((b: { beyondSpectrum?: boolean }) => b.beyondSpectrum)).toBe(false);
+  });
+
+  it('levels: bands reaching above half the sample rate are null and say they are beyond the spectrum', async () => {
+    // 16 kHz sampling: Nyquist 8 kHz lies inside the 8 kHz band (7.08–8.91 kHz edges, IEC 61260-1), so
+    // that band and those above it are beyond the spectrum
+    const fs = 16000;
+    const low = path.join(dir, 'low-rate.wav');
+    writeFileSync(low, wav([Float32Array.from({ length: fs * 2 }, (_, i) => 0.5 * Math.sin((2 * Math.PI * 1000 * i) / fs))], { bits: 32, float: true, sampleRateHz: fs }));
+    const r = await analyze('levels', low, '--channel', '0');
+    const beyond = r.json.bands.filter((b: { beyondSpectrum?: boolean }) => b.beyondSpectrum).map((b: { nominalHz: number }) => b.nominalHz);
+    expect(beyond).toEqual([8000, 10000, 12500, 16000, 20000]);
+    for (const b of r.json.bands.filter((x: { beyondSpectrum?: boolean }) => x.beyondSpectrum)) expect(b.db).toBeNull();
+    expect(r.json.bands.find((b: { nominalHz: number }) => b.nominalHz === 1000).db).toBeCloseTo(10 * Math.log10(0.125), 1);
   });
 
   it('speed: a 60-pulse tacho at 1500 rpm reads 1500 rpm (pulse rate = ppr·rpm/60)', async () => {

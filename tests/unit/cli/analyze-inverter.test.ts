@@ -15,11 +15,13 @@ const T = 8;
 const rpm = (t: number) => 1000 + 1000 * t; // 1000 → 9000 rpm
 const dir = mkdtempSync(path.join(tmpdir(), 'fanlight-cli-inverter-'));
 const file = path.join(dir, 'runup.wav');
-const vib = synthesiseDrive({
-  fsHz: FS,
-  durationS: T,
-  rpm,
-  polePairs: 4,
+/** A 4-pole-pair run-up with a 60-pulse tacho on channel 1, written to `to`. */
+function writeRunUp(to: string, drive: Pick<Parameters<typeof synthesiseDrive>[0], 'carrierHz' | 'orders' | 'families' | 'seed'>) {
+  const x = synthesiseDrive({ fsHz: FS, durationS: T, rpm, polePairs: 4, noiseRms: 0.002, ...drive });
+  writeFileSync(to, writeWav([x, synthesiseTacho(FS, T, rpm, 60)], { sampleRateHz: FS, bits: 32, float: true }));
+}
+// acceleration in g as the file's unit; --cal 9.80665 turns it into m/s²
+writeRunUp(file, {
   carrierHz: (t) => (rpm(t) < 5000 ? 8000 : 10000),
   orders: [{ order: 8, amplitude: 0.05 }, { order: 48, amplitude: 0.02 }],
   families: [
@@ -29,29 +31,20 @@ const vib = synthesiseDrive({
     { m: 2, n: 2, amplitude: 0.006 },
     { m: 2, n: -2, amplitude: 0.006 },
   ],
-  noiseRms: 0.002,
   seed: 11,
 });
-// acceleration in g as the file's unit; --cal 9.80665 turns it into m/s²
-writeFileSync(file, writeWav([vib, synthesiseTacho(FS, T, rpm, 60)], { sampleRateHz: FS, bits: 32, float: true }));
 
 // one sideband pair only: fc ± 4fr fits p = 4 (n = ±1, force pattern) and p = 2 (n = ±2, voltage pattern)
 const onePairFile = path.join(dir, 'one-pair.wav');
-const onePair = synthesiseDrive({
-  fsHz: FS,
-  durationS: T,
-  rpm,
-  polePairs: 4,
+writeRunUp(onePairFile, {
   carrierHz: () => 10000,
   orders: [],
   families: [
     { m: 1, n: 1, amplitude: 0.02 },
     { m: 1, n: -1, amplitude: 0.02 },
   ],
-  noiseRms: 0.002,
   seed: 13,
 });
-writeFileSync(onePairFile, writeWav([onePair, synthesiseTacho(FS, T, rpm, 60)], { sampleRateHz: FS, bits: 32, float: true }));
 
 async function analyze(...args: string[]) {
   const { stdout } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT, maxBuffer: 64 << 20 });

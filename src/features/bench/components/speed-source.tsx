@@ -64,6 +64,22 @@ function Field({ label, children }: { label: string; children: (id: string) => R
 
 const channelName = (c: ChannelSetup) => `${c.index + 1} · ${c.name.trim() || `ch${c.index + 1}`}`;
 
+function ChannelSelect({ label, setup, value, onChange }: { label: string; setup: ChannelSetup[]; value: number; onChange: (channel: number) => void }) {
+  return (
+    <Field label={label}>
+      {(id) => (
+        <select id={id} className={`${smallSelectClass} max-w-36`} value={value} onChange={(e) => onChange(Number(e.target.value))}>
+          {setup.map((c) => (
+            <option key={c.index} value={c.index}>
+              {channelName(c)}
+            </option>
+          ))}
+        </select>
+      )}
+    </Field>
+  );
+}
+
 /** Where the speed comes from, and the pole pairs that turn it into the electrical frequency. */
 export function SpeedSourceForm({
   source,
@@ -106,17 +122,7 @@ export function SpeedSourceForm({
       </Field>
       {source.kind === 'tacho' && (
         <div className="flex flex-wrap items-end gap-2">
-          <Field label="Tacho channel">
-            {(id) => (
-              <select id={id} className={`${smallSelectClass} max-w-36`} value={source.channel} onChange={(e) => onChange({ ...source, channel: Number(e.target.value) })}>
-                {setup.map((c) => (
-                  <option key={c.index} value={c.index}>
-                    {channelName(c)}
-                  </option>
-                ))}
-              </select>
-            )}
-          </Field>
+          <ChannelSelect label="Tacho channel" setup={setup} value={source.channel} onChange={(channel) => onChange({ ...source, channel })} />
           <NumberField label="Pulses per rev" value={source.ppr} width="w-16" onChange={(v) => onChange({ ...source, ppr: v ?? Number.NaN })} />
           <NumberField
             label="Trigger level"
@@ -130,17 +136,7 @@ export function SpeedSourceForm({
       )}
       {source.kind === 'channel' && (
         <div className="flex flex-wrap items-end gap-2">
-          <Field label="Speed channel">
-            {(id) => (
-              <select id={id} className={`${smallSelectClass} max-w-36`} value={source.channel} onChange={(e) => onChange({ ...source, channel: Number(e.target.value) })}>
-                {setup.map((c) => (
-                  <option key={c.index} value={c.index}>
-                    {channelName(c)}
-                  </option>
-                ))}
-              </select>
-            )}
-          </Field>
+          <ChannelSelect label="Speed channel" setup={setup} value={source.channel} onChange={(channel) => onChange({ ...source, channel })} />
           <NumberField label="Scale (rpm per unit)" value={source.rpmPerUnit} width="w-20" onChange={(v) => onChange({ ...source, rpmPerUnit: v ?? Number.NaN })} />
         </div>
       )}

@@ -3,6 +3,7 @@ import type { GuideRef, Mark, ViewState } from '../../../../server/schemas/views
 import { levelOfByte } from '../../../../server/services/snapshot-codec';
 import { colourLut, lutCss, type ColourScaleName } from '../../bench/map/colour-scales';
 import { ticks } from '../../bench/map/axis-ticks';
+import { BottomAxis, LeftAxis } from '../../bench/components/map-axes';
 import type { DecodedSnapshot } from '../api/snapshot';
 import { axisTicks, axisTitle, formatAxisValue, fractionOf, valueAt, type AxisSpec } from '../snapshot/axes';
 import { lineForGuide, sameGuide, type GuideLine, type Polyline } from '../snapshot/guide-lines';
@@ -202,7 +203,7 @@ export function SnapshotFigure({
   return (
     <figure className="flex flex-col gap-1.5">
       <div className="grid grid-cols-[3.75rem_minmax(0,1fr)_4.75rem]">
-        <LeftAxis axis={ax.y} />
+        <LeftAxis axis={{ title: axisTitle(ax.y), items: axisTicks(ax.y, 6) }} testId="snapshot-axis-y" />
         <div
           ref={plotRef}
           className={`relative h-80 touch-none select-none overflow-hidden rounded-sm bg-ink-950 ring-1 ring-ink-700 lg:h-[26rem] ${onPick ? 'cursor-crosshair' : ''}`}
@@ -327,7 +328,7 @@ export function SnapshotFigure({
         </div>
         <ScaleBar lut={lut} topDb={header.dbTop} rangeDb={header.dbRange} weighting={state.processing.weighting} />
         <div />
-        <BottomAxis axis={ax.x} />
+        <BottomAxis axis={{ title: axisTitle(ax.x), items: axisTicks(ax.x, 8) }} testId="snapshot-axis-x" />
         <div />
       </div>
       <figcaption className="ml-[3.75rem] flex min-h-5 flex-wrap gap-x-4 font-mono text-xs text-mist-300" data-testid="snapshot-readout">
@@ -388,48 +389,6 @@ function PendingShape({
         <path key={i} d={polyPath(pl)} fill="none" stroke={ACCENT} strokeWidth={2} strokeDasharray={dash} />
       ))}
     </g>
-  );
-}
-
-function LeftAxis({ axis }: { axis: AxisSpec }) {
-  return (
-    <div className="flex select-none" data-testid="snapshot-axis-y">
-      <span className="mr-1 self-center whitespace-nowrap text-xs text-mist-500 [transform:rotate(180deg)] [writing-mode:vertical-rl]">
-        {axisTitle(axis)}
-      </span>
-      <div className="relative flex-1">
-        {axisTicks(axis, 6).map(({ at, label }) => (
-          <span
-            key={label}
-            className="absolute right-0 flex translate-y-1/2 items-center gap-1 font-mono text-[11px] leading-none text-mist-300"
-            style={{ bottom: `${at * 100}%` }}
-          >
-            {label}
-            <span className="h-px w-1.5 bg-ink-600" />
-          </span>
-        ))}
-      </div>
-    </div>
-  );
-}
-
-function BottomAxis({ axis }: { axis: AxisSpec }) {
-  return (
-    <div className="select-none" data-testid="snapshot-axis-x">
-      <div className="relative h-5">
-        {axisTicks(axis, 8).map(({ at, label }) => (
-          <span
-            key={label}
-            className="absolute top-0 flex -translate-x-1/2 flex-col items-center font-mono text-[11px] leading-none text-mist-300"
-            style={{ left: `${at * 100}%` }}
-          >
-            <span className="mb-1 h-1.5 w-px bg-ink-600" />
-            {label}
-          </span>
-        ))}
-      </div>
-      <p className="text-center text-xs text-mist-500">{axisTitle(axis)}</p>
-    </div>
   );
 }
 

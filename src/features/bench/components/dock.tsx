@@ -118,9 +118,7 @@ function TracksPanel(p: DockProps) {
     <BenchPanel
       title="Tracks"
       actions={
-        <button type="button" className={toolButtonClass()} data-testid="export-tracks-csv" disabled={!tracks} onClick={exportCsv}>
-          CSV
-        </button>
+        <CsvButton testId="export-tracks-csv" disabled={!tracks} onClick={exportCsv} />
       }
     >
       {options && tracks ? (
@@ -288,9 +286,7 @@ function SlicePanel(p: DockProps) {
     <BenchPanel
       title="Slice"
       actions={
-        <button type="button" className={toolButtonClass()} data-testid="export-slice-csv" disabled={!levels} onClick={exportCsv}>
-          CSV
-        </button>
+        <CsvButton testId="export-slice-csv" disabled={!levels} onClick={exportCsv} />
       }
     >
       <p className="mb-1 font-mono text-[11px] text-mist-500" data-testid="slice-at">
@@ -336,9 +332,7 @@ function BandsPanel(p: DockProps) {
     <BenchPanel
       title="Band levels"
       actions={
-        <button type="button" className={toolButtonClass()} data-testid="export-bands-csv" disabled={!result} onClick={exportCsv}>
-          CSV
-        </button>
+        <CsvButton testId="export-bands-csv" disabled={!result} onClick={exportCsv} />
       }
     >
       <div className="mb-1 flex items-baseline gap-2">
@@ -433,5 +427,14 @@ function BandBars({ bands, unit }: { bands: BandLevel[]; unit: string }) {
         {h ? `${shortHz(h.nominalHz)}Hz ${h.db === null ? '—' : h.db.toFixed(1)} ${unit.split(' ')[0]}` : ''}
       </p>
     </div>
+  );
+}
+
+/** A panel's CSV export button. */
+function CsvButton({ testId, disabled, onClick }: { testId: string; disabled: boolean; onClick: () => void }) {
+  return (
+    <button type="button" className={toolButtonClass()} data-testid={testId} disabled={disabled} onClick={onClick}>
+      CSV
+    </button>
   );
 }

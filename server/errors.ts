@@ -15,6 +15,9 @@ export type ErrorCode =
   | 'UNSUPPORTED_MEDIA_TYPE'
   | 'RATE_LIMITED'
   | 'SERVICE_UNAVAILABLE'
+  | 'DATABASE_UNAVAILABLE'
+  | 'IDEMPOTENCY_KEY_REUSED'
+  | 'IDEMPOTENCY_KEY_IN_USE'
   | 'INTERNAL';
 
 export type FieldErrors = Record<string, string>;
@@ -93,5 +96,16 @@ export class UnsupportedMediaTypeError extends AppError {
 export class PayloadTooLargeError extends AppError {
   constructor(message = 'The request body is too large.') {
     super(413, 'PAYLOAD_TOO_LARGE', message);
+  }
+}
+
+/**
+ * The database did not answer (refused, dropped, killed, or no pool connection within the acquire timeout).
+ * A 503 that says so: the request may be retried once the database is back.
+ */
+export class DatabaseUnavailableError extends AppError {
+  constructor(message = 'The database is not reachable just now; try again in a few seconds.') {
+    super(503, 'DATABASE_UNAVAILABLE', message);
+    this.name = 'DatabaseUnavailableError';
   }
 }

@@ -26,7 +26,9 @@ export async function serve(config: AppConfig = loadConfig()): Promise<{ server:
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
+  // the same process rules as the launchers: only SIGINT/SIGTERM stop it; a bug is logged, not fatal
+  const { onShutdown } = await import('./ops/shutdown');
   const { url, stop } = await serve();
   console.log(`Fanlight API and app on ${url}`);
-  for (const signal of ['SIGINT', 'SIGTERM'] as const) process.once(signal, () => void stop().then(() => process.exit(0)));
+  onShutdown(stop);
 }

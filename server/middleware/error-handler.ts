@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
-import { AppError, NotFoundError } from '../errors';
+import { isDatabaseUnavailable } from '../db/db-errors';
+import { AppError, DatabaseUnavailableError, NotFoundError } from '../errors';
 
 /** Unknown /api routes answer in the error shape rather than with the client's index.html. */
 export const apiNotFound: RequestHandler = (_req, _res, next) => {
@@ -13,7 +14,29 @@ interface HttpishError {
   expose?: boolean;
 }
 
-export const errorHandler: ErrorRequestHandler = (err: unknown, _req, res, _next) => {
+/** Seconds a client should wait before retrying when the database is away. */
+const DB_RETRY_AFTER_S = 2;
+
+export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) => {
+  if (res.headersSent) {
+    if (res.writableEnded) {
+      // The whole answer was written; what failed came after it (express-session's touch or save of the
+      // session at the end of the request). The answer stands; the session is saved again next time.
+      console.warn(`fanlight: after answering ${req.method} ${req.originalUrl}: ${(err as Error)?.message ?? String(err)}`);
+      return;
+    }
+    // Half an answer is out: Express's own handler ends the connection, so the client sees a broken answer
+    // rather than a wrong one.
+    console.error(`fanlight: error while answering ${req.method} ${req.originalUrl}:`, err);
+    next(err);
+    return;
+  }
+  if (isDatabaseUnavailable(err)) {
+    console.warn(`fanlight: database unavailable for ${req.method} ${req.originalUrl}: ${(err as Error).message}`);
+    res.set('Retry-After', String(DB_RETRY_AFTER_S));
+    res.status(503).json(new DatabaseUnavailableError().toBody());
+    return;
+  }
   if (err instanceof AppError) {
     res.status(err.status).json(err.toBody());
     return;

@@ -1,6 +1,7 @@
-import { ConnectSessionKnexStore } from 'connect-session-knex';
+import type { RequestHandler } from 'express';
 import session from 'express-session';
 import type { Knex } from 'knex';
+import { KnexSessionStore } from './session-store';
 
 declare module 'express-session' {
   interface SessionData {
@@ -13,16 +14,9 @@ export const SESSION_COOKIE = 'fanlight.sid';
 const SESSION_DAYS = 7;
 
 export function sessionMiddleware(db: Knex, secret: string) {
-  const store = new ConnectSessionKnexStore({
-    knex: db,
-    tableName: 'sessions', // created by migrations/…_create_sessions.ts
-    createTable: false,
-    cleanupInterval: 15 * 60_000,
-  });
-  // The store checks its table once at start; with the database down that check fails, and every session
-  // read fails again later with the real error, so the first failure needs no handler of its own.
-  store.ready.catch(() => undefined);
-  const middleware = session({
+  // the table comes from migrations/…_create_sessions.ts
+  const store = new KnexSessionStore(db);
+  const sessions = session({
     name: SESSION_COOKIE,
     secret,
     store,
@@ -36,5 +30,21 @@ export function sessionMiddleware(db: Knex, secret: string) {
       maxAge: SESSION_DAYS * 24 * 3600_000,
     },
   });
+  /**
+   * express-session saves or touches the session after the answer is written and, when that fails, calls
+   * `next(err)` a second time. By then the answer is complete (and perhaps already was an error answer), so
+   * the late error would reach Express's final handler, which destroys the connection: the client's next
+   * request on that keep-alive connection would then fail. A late error is logged instead; the session is
+   * saved again on the next request.
+   */
+  const middleware: RequestHandler = (req, res, next) => {
+    sessions(req, res, (err?: unknown) => {
+      if (err && res.headersSent) {
+        console.warn(`fanlight: session not saved after answering ${req.method} ${req.originalUrl}: ${(err as Error)?.message ?? String(err)}`);
+        return;
+      }
+      next(err);
+    });
+  };
   return { middleware, store };
 }

@@ -11,9 +11,11 @@ import { prepareDemoRecordings } from './demo-files';
 import { onShutdown } from './shutdown';
 
 process.env.PUBLIC_ORIGIN ??= 'http://127.0.0.1:5173'; // links in mail open the dev server
+process.env.ALLOWED_ORIGINS ??= 'http://localhost:5173'; // the dev server by its other name
 const config = loadConfig();
 const { mariadb } = await prepareDatabase('app', config.db);
 onShutdown(() => mariadb.stop());
+mariadb.supervise();
 prepareDemoRecordings(config);
 const mailLine = await startMailFakeIfWanted(config);
 const app = await serve(config);

@@ -50,6 +50,10 @@ export class PrivateMariaDb {
   readonly errorLog: string;
   /** True when this process started mariadbd and so must stop it. */
   private owned = false;
+  private supervisor: NodeJS.Timeout | undefined;
+  /** True when start() found the instance already running. */
+  adopted = false;
+  private stopped = false;
 
   constructor(private readonly options: PrivateMariaDbOptions) {
     const base = path.resolve(options.baseDir);
@@ -114,9 +118,11 @@ export class PrivateMariaDb {
   /** Starts the instance (or adopts one already running on the same data folder) and waits until it answers. */
   async start(timeoutMs = 30_000): Promise<void> {
     mkdirSync(this.runDir, { recursive: true });
+    this.adopted = false;
     if (this.runningPid() && (await this.ping())) {
-      // Left running by an earlier start that was killed: adopt it, and stop it when we stop.
-      this.owned = true;
+      // Left running by an earlier start, or started by someone else: use it, and leave it running when we
+      // stop (we never stop a database we did not start).
+      this.adopted = true;
       return;
     }
     this.initialise();
@@ -168,13 +174,70 @@ export class PrivateMariaDb {
 
   /** Stops the instance if this process started it; waits for it to exit so the data is flushed. */
   async stop(timeoutMs = 30_000): Promise<void> {
+    this.stopped = true;
+    if (this.supervisor) clearInterval(this.supervisor);
     if (!this.owned) return;
-    const pid = this.runningPid();
     this.owned = false;
+    await this.terminate('SIGTERM', timeoutMs);
+  }
+
+  /**
+   * Ends the running mariadbd whoever started it (tests of the app's behaviour while its database is away):
+   * SIGTERM is a clean shutdown, SIGKILL a crash that InnoDB recovers from at the next start.
+   */
+  async terminate(signal: 'SIGTERM' | 'SIGKILL' = 'SIGTERM', timeoutMs = 30_000): Promise<void> {
+    const pid = this.runningPid();
     if (!pid) return;
-    process.kill(pid, 'SIGTERM');
+    process.kill(pid, signal);
     const deadline = Date.now() + timeoutMs;
-    while (isAlive(pid) && Date.now() < deadline) await sleep(100);
+    while (isAlive(pid) && Date.now() < deadline) await sleep(50);
     if (isAlive(pid)) process.kill(pid, 'SIGKILL');
+  }
+
+  /** True while mariadbd's pid (from its pid file) is alive. */
+  isRunning(): boolean {
+    return this.runningPid() !== null;
+  }
+
+  /**
+   * Watches the instance and starts it again when it dies (crash, OOM kill, a stray `kill`), waiting 1, 2, 4 …
+   * up to 30 s between attempts; the wait resets once it has run for a minute. Says each step on `log`.
+   */
+  supervise(log: (line: string) => void = console.log, everyMs = 1000): void {
+    let backoffMs = 1000;
+    let nextAttempt = 0;
+    let upSince = Date.now();
+    let restarting = false;
+    this.supervisor = setInterval(() => {
+      if (this.stopped || restarting) return;
+      if (this.isRunning()) {
+        if (Date.now() - upSince > 60_000) backoffMs = 1000;
+        return;
+      }
+      const now = Date.now();
+      if (nextAttempt === 0) {
+        log(`fanlight: MariaDB on 127.0.0.1:${this.port} is not running (see ${this.errorLog}); restarting it in ${backoffMs / 1000} s`);
+        nextAttempt = now + backoffMs;
+        return;
+      }
+      if (now < nextAttempt) return;
+      restarting = true;
+      this.start()
+        .then(() => {
+          if (this.stopped) return this.stop();
+          upSince = Date.now();
+          nextAttempt = 0;
+          log(`fanlight: MariaDB on 127.0.0.1:${this.port} restarted`);
+        })
+        .catch((e: unknown) => {
+          backoffMs = Math.min(backoffMs * 2, 30_000);
+          nextAttempt = Date.now() + backoffMs;
+          log(`fanlight: MariaDB did not restart (${(e as Error).message.split('\n')[0]}); next try in ${backoffMs / 1000} s`);
+        })
+        .finally(() => {
+          restarting = false;
+        });
+    }, everyMs);
+    this.supervisor.unref();
   }
 }

@@ -1,12 +1,26 @@
 /**
- * Stops what a launcher started, last started first, on Ctrl-C, SIGTERM or a fatal error.
+ * Stops what a launcher started, last started first, on Ctrl-C (SIGINT) or SIGTERM, and on nothing else.
+ *
+ * An unhandled rejection or an uncaught exception is a bug in one request's code, not a reason to take the
+ * server (and the team's database with it) down: it is logged loudly with what is known, and the server
+ * keeps answering. Each is counted so that tests and the log can tell.
  */
 type Stopper = () => Promise<void> | void;
 const stoppers: Stopper[] = [];
 let stopping = false;
+let bugsLogged = 0;
 
 export function onShutdown(stop: Stopper): void {
   stoppers.unshift(stop);
+}
+
+export function isShuttingDown(): boolean {
+  return stopping;
+}
+
+/** How many unhandled rejections and uncaught exceptions this process has logged. */
+export function loggedBugCount(): number {
+  return bugsLogged;
 }
 
 export async function shutdown(code = 0): Promise<never> {
@@ -23,17 +37,32 @@ export async function shutdown(code = 0): Promise<never> {
   process.exit(code);
 }
 
-for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {
+function describe(e: unknown): string {
+  if (e instanceof Error) {
+    const extra = Object.entries(e as unknown as Record<string, unknown>)
+      .filter(([k, v]) => ['code', 'errno', 'sql', 'fatal'].includes(k) && v !== undefined)
+      .map(([k, v]) => `${k}=${String(v)}`)
+      .join(' ');
+    return `${e.stack ?? e.message}${extra ? `\n  (${extra})` : ''}`;
+  }
+  return String(e);
+}
+
+export function logBug(kind: 'unhandled rejection' | 'uncaught exception', e: unknown): void {
+  bugsLogged += 1;
+  console.error(
+    `\nfanlight: BUG #${bugsLogged} (${kind}, pid ${process.pid}, ${new Date().toISOString()}); the server keeps running.\n` +
+      `${describe(e)}\n`,
+  );
+}
+
+for (const signal of ['SIGINT', 'SIGTERM'] as const) {
   process.on(signal, () => {
     console.log(`\nfanlight: stopping (${signal})`);
     void shutdown(0);
   });
 }
-process.on('uncaughtException', (e) => {
-  console.error(e);
-  void shutdown(1);
-});
-process.on('unhandledRejection', (e) => {
-  console.error(e);
-  void shutdown(1);
-});
+// A closed terminal must not leave the database half-stopped: say how to stop instead.
+process.on('SIGHUP', () => console.log('fanlight: SIGHUP ignored; stop with Ctrl-C or SIGTERM'));
+process.on('uncaughtException', (e) => logBug('uncaught exception', e));
+process.on('unhandledRejection', (e) => logBug('unhandled rejection', e));

@@ -8,6 +8,9 @@ import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { loadUser, requireSession } from './middleware/require-session';
 import { sessionMiddleware } from './middleware/session';
 import { csrfProtection } from './middleware/csrf';
+import { idempotentCreates } from './middleware/idempotency';
+import { jsonBodiesOnly } from './middleware/json-only';
+import { IdempotencyRepository } from './repositories/idempotency-repository';
 import { createMailer, type Mailer } from './mail/mailer';
 import { adminRoutes } from './routes/admin';
 import { authRoutes } from './routes/auth';
@@ -75,6 +78,7 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   const invitations = new InvitationService(db, mailer, config.publicOrigin);
   const notifications = new NotificationService(db, mailer, config.publicOrigin);
   const views = new ViewService(db, notifications);
+  const idempotency = idempotentCreates(new IdempotencyRepository(db), config.sessionSecret);
 
   const api = express.Router();
   api.use(express.json({ limit: JSON_BODY_LIMIT }));
@@ -83,6 +87,9 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   api.use(session.middleware);
   api.use(loadUser(auth));
   api.use(csrfProtection([config.publicOrigin, ...config.extraOrigins]));
+  // the one route that takes a file checks its own type (415 for anything but multipart)
+  api.use(jsonBodiesOnly([/^\/views\/[^/]+\/snapshot$/]));
+  api.use(idempotency.middleware);
   api.use(authRoutes(auth, new PasswordResetService(db, mailer, config.publicOrigin)));
   api.use(projectRoutes(new ProjectService(db), invitations));
   api.use(recordingRoutes(new RecordingService(db)));
@@ -117,8 +124,8 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
     app,
     close() {
       mailer.close();
-      const timer = (session.store as { nextDbCleanup?: NodeJS.Timeout }).nextDbCleanup;
-      if (timer) clearTimeout(timer);
+      session.store.close();
+      idempotency.close();
     },
   };
 }

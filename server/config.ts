@@ -71,6 +71,8 @@ function localSessionSecret(): string {
   return secret;
 }
 
+const LOOPBACK_NAMES = ['127.0.0.1', 'localhost'];
+
 export const DEFAULT_DB_PASSWORD = 'fanlight-dev-db';
 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
@@ -83,7 +85,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     host,
     port,
     publicOrigin: env.PUBLIC_ORIGIN || `http://${host}:${port}`,
-    extraOrigins: (env.ALLOWED_ORIGINS ?? '').split(',').map((o) => o.trim()).filter(Boolean),
+    extraOrigins: [
+      ...(env.ALLOWED_ORIGINS ?? '').split(',').map((o) => o.trim()).filter(Boolean),
+      // With no PUBLIC_ORIGIN on a loopback host, both names of this machine open the app.
+      ...(!env.PUBLIC_ORIGIN && LOOPBACK_NAMES.includes(host) ? LOOPBACK_NAMES.map((h) => `http://${h}:${port}`) : []),
+    ],
     db: {
       host: env.DB_HOST || '127.0.0.1',
       port: int(env.DB_PORT, mode === 'test' ? 33307 : 33306, 'DB_PORT'),

@@ -18,6 +18,7 @@ import * as createMarks from '../../migrations/20261201001200_create_marks';
 import * as createShareLinks from '../../migrations/20261201001300_create_share_links';
 import * as createComments from '../../migrations/20261201001400_create_comments';
 import * as createNotificationSettings from '../../migrations/20261201001500_create_notification_settings';
+import * as createIdempotencyKeys from '../../migrations/20261205000100_create_idempotency_keys';
 
 interface NamedMigration {
   name: string;
@@ -40,6 +41,7 @@ export const migrations: NamedMigration[] = [
   { name: '20261201001300_create_share_links', module: createShareLinks },
   { name: '20261201001400_create_comments', module: createComments },
   { name: '20261201001500_create_notification_settings', module: createNotificationSettings },
+  { name: '20261205000100_create_idempotency_keys', module: createIdempotencyKeys },
 ];
 
 export const migrationSource: Knex.MigrationSource<NamedMigration> = {

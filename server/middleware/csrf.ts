@@ -11,16 +11,17 @@ import { newToken, sameToken } from '../services/tokens';
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 const TOKEN_FREE_PATHS = new Set(['/auth/signin']);
 
-/** Our own origin as this request addressed us, plus the configured public one and any extras. */
-function allowedOrigins(req: Request, configured: string[]): Set<string> {
-  return new Set([`${req.protocol}://${req.get('host')}`, ...configured]);
-}
-
+/**
+ * The allowed origins come from configuration only (PUBLIC_ORIGIN, ALLOWED_ORIGINS), never from the request:
+ * a request's own Host header is whatever the sender wrote, so `Host: evil.example` with
+ * `Origin: http://evil.example` must not pass.
+ */
 export function csrfProtection(configuredOrigins: string[]): RequestHandler {
+  const allowed = new Set(configuredOrigins.map(normaliseOrigin));
   return (req, _res, next) => {
     if (SAFE_METHODS.has(req.method)) return next();
     const origin = req.get('origin');
-    if (origin !== undefined && !allowedOrigins(req, configuredOrigins).has(origin)) {
+    if (origin !== undefined && !allowed.has(normaliseOrigin(origin))) {
       return next(new ForbiddenError('This request came from another site and was refused.', 'CSRF_REJECTED'));
     }
     if (origin === undefined && req.get('sec-fetch-site') === 'cross-site') {
@@ -38,6 +39,16 @@ export function csrfProtection(configuredOrigins: string[]): RequestHandler {
     }
     next();
   };
+}
+
+/** "http://Example.test:80/" and "http://example.test" are one origin (RFC 6454 §4 serialisation). */
+export function normaliseOrigin(origin: string): string {
+  try {
+    const u = new URL(origin);
+    return u.origin;
+  } catch {
+    return origin;
+  }
 }
 
 /** The session's token, made on first use. */

@@ -1,6 +1,6 @@
 import type { RequestHandler } from 'express';
 import type { z } from 'zod';
-import { ValidationError, type FieldErrors } from '../errors';
+import { NotFoundError, ValidationError, type FieldErrors } from '../errors';
 
 /** Field path → first message, e.g. { email: "Enter an e-mail address." }. */
 export function fieldErrors(error: z.ZodError): FieldErrors {
@@ -25,6 +25,6 @@ export function validateBody<S extends z.ZodType>(schema: S): RequestHandler {
 /** Parses route params (e.g. numeric ids); a bad id is a 404, since no such resource can exist. */
 export function parseParams<S extends z.ZodType>(schema: S, params: unknown): z.infer<S> {
   const result = schema.safeParse(params);
-  if (!result.success) throw new ValidationError(fieldErrors(result.error), 'The address is not valid.');
+  if (!result.success) throw new NotFoundError('Nothing exists at this address.');
   return result.data;
 }

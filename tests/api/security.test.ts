@@ -2,6 +2,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../seeds/demo-scenario';
 import { makeProject, makeUser, sessionFor, uniqueEmail } from '../support/actors';
 import { startTestApp } from '../support/test-app';
+import { testConfig } from '../support/test-db';
 
 describe('security of the API', () => {
   const t = startTestApp();
@@ -43,6 +44,64 @@ describe('security of the API', () => {
       expect(res.body.error.code).toBe('CSRF_REJECTED');
       const anon = await fresh.agent().post('/api/auth/signin').set('Origin', 'http://evil.example').send({});
       expect(anon.status).toBe(403);
+    } finally {
+      await fresh.close();
+    }
+  });
+
+  it('Cannot POST with a forged Host that matches a forged Origin (403): origins come from configuration only', async () => {
+    const fresh = startTestApp();
+    try {
+      const session = await sessionFor(fresh.app, 'engineer@fanlight.test', DEMO_PASSWORD);
+      const forged = await session.agent
+        .post('/api/projects')
+        .set('Host', 'evil.example')
+        .set('Origin', 'http://evil.example')
+        .set('X-CSRF-Token', session.csrf)
+        .send({ name: 'forged host' });
+      expect(forged.status).toBe(403);
+      expect(forged.body.error.code).toBe('CSRF_REJECTED');
+      const anon = await fresh.agent().post('/api/auth/signin').set('Host', 'evil.example').set('Origin', 'http://evil.example').send({});
+      expect(anon.status).toBe(403);
+      // the configured public origin passes, whatever Host says
+      const own = await session.agent
+        .post('/api/projects')
+        .set('Host', 'evil.example')
+        .set('Origin', testConfig().publicOrigin)
+        .set('X-CSRF-Token', session.csrf)
+        .send({ name: 'own origin' });
+      expect(own.status).not.toBe(403);
+    } finally {
+      await fresh.close();
+    }
+  });
+
+  it('Answers 404 for a malformed id in the address, as for an unknown one', async () => {
+    const fresh = startTestApp();
+    try {
+      const s = await sessionFor(fresh.app, 'engineer@fanlight.test', DEMO_PASSWORD);
+      for (const path of ['/api/views/abc', '/api/projects/1x', '/api/views/-3/marks', '/api/marks/0/comments']) {
+        const res = await s.agent.get(path);
+        expect(res.status, path).toBe(404);
+        expect(res.body.error.code).toBe('NOT_FOUND');
+      }
+    } finally {
+      await fresh.close();
+    }
+  });
+
+  it('Answers 415 UNSUPPORTED_MEDIA_TYPE for a body that is not JSON', async () => {
+    const fresh = startTestApp();
+    try {
+      const s = await sessionFor(fresh.app, 'engineer@fanlight.test', DEMO_PASSWORD);
+      const text = await s.agent.post('/api/projects').set('X-CSRF-Token', s.csrf).set('Content-Type', 'text/plain').send('name=plain');
+      expect(text.status).toBe(415);
+      expect(text.body.error.code).toBe('UNSUPPORTED_MEDIA_TYPE');
+      const form = await fresh.agent().post('/api/auth/signin').type('form').send({ email: 'a@b.c', password: 'x' });
+      expect(form.status).toBe(415);
+      // malformed JSON stays a 400
+      const broken = await fresh.agent().post('/api/auth/signin').set('Content-Type', 'application/json').send('{"email":');
+      expect(broken.status).toBe(400);
     } finally {
       await fresh.close();
     }

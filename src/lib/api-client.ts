@@ -41,9 +41,19 @@ function currentCsrfToken(): Promise<string> {
   return csrfToken;
 }
 
-async function request<T>(method: Method, path: string, body?: unknown, retried = false): Promise<T> {
+interface RequestOptions {
+  /** Sent as Idempotency-Key: the server runs a create once per key, and answers a retry with the first answer. */
+  idempotencyKey?: string;
+  /** Send once more when the request never got an answer (network failure); safe only with a key. */
+  retryOnNetworkFailure?: boolean;
+}
+
+const NETWORK_RETRY_DELAY_MS = 500;
+
+async function request<T>(method: Method, path: string, body?: unknown, retried = false, options: RequestOptions = {}): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (body !== undefined) headers['Content-Type'] = 'application/json';
+  if (options.idempotencyKey) headers['Idempotency-Key'] = options.idempotencyKey;
   if (method !== 'GET') {
     try {
       headers['X-CSRF-Token'] = await currentCsrfToken();
@@ -60,6 +70,11 @@ async function request<T>(method: Method, path: string, body?: unknown, retried 
       body: body === undefined ? undefined : JSON.stringify(body),
     });
   } catch {
+    if (options.retryOnNetworkFailure) {
+      // The answer was lost, not refused: the write may have been stored. The same key makes the retry safe.
+      await new Promise((r) => setTimeout(r, NETWORK_RETRY_DELAY_MS));
+      return request<T>(method, path, body, retried, { ...options, retryOnNetworkFailure: false });
+    }
     throw new ApiError(0, 'NETWORK', 'The server cannot be reached. Check that Fanlight is running.');
   }
   if (response.status === 204) return undefined as T;
@@ -74,7 +89,7 @@ async function request<T>(method: Method, path: string, body?: unknown, retried 
     const err = (data as { error?: ApiErrorBody } | undefined)?.error;
     if (err?.code === 'CSRF_REJECTED' && !retried) {
       forgetCsrfToken(); // the session changed under us (signed in elsewhere, expired): fetch a new token once
-      return request<T>(method, path, body, true);
+      return request<T>(method, path, body, true, options);
     }
     throw new ApiError(
       response.status,
@@ -89,7 +104,18 @@ async function request<T>(method: Method, path: string, body?: unknown, retried 
 export const api = {
   get: <T>(path: string) => request<T>('GET', path),
   post: <T>(path: string, body?: unknown) => request<T>('POST', path, body ?? {}),
+  /** A POST that creates a record: sent with a fresh Idempotency-Key and retried once if no answer came. */
+  create: <T>(path: string, body?: unknown) =>
+    request<T>('POST', path, body ?? {}, false, { idempotencyKey: newIdempotencyKey(), retryOnNetworkFailure: true }),
   patch: <T>(path: string, body: unknown) => request<T>('PATCH', path, body),
   put: <T>(path: string, body: unknown) => request<T>('PUT', path, body),
   delete: <T>(path: string) => request<T>('DELETE', path),
 };
+
+/** A random key per create (crypto.randomUUID needs a secure context; loopback counts as one). */
+export function newIdempotencyKey(): string {
+  if (typeof crypto !== 'undefined' && typeof crypto.randomUUID === 'function') return crypto.randomUUID();
+  const bytes = new Uint8Array(16);
+  crypto.getRandomValues(bytes);
+  return Array.from(bytes, (b) => b.toString(16).padStart(2, '0')).join('');
+}

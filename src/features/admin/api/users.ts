@@ -19,7 +19,7 @@ export const useAdminUsers = (enabled: boolean) => useQuery({ ...adminUsersQuery
 export function useCreateUser() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: async (body: CreateUserBody) => (await api.post<{ user: AdminUser }>('/admin/users', body)).user,
+    mutationFn: async (body: CreateUserBody) => (await api.create<{ user: AdminUser }>('/admin/users', body)).user,
     onSuccess: () => qc.invalidateQueries({ queryKey: adminKeys.users() }),
   });
 }

@@ -60,7 +60,7 @@ async function placeMarks(viewId: number, marks: BenchMark[], swapped: boolean):
   const failed: string[] = [];
   for (const m of marks) {
     try {
-      await api.post<{ mark: Mark }>(`/views/${viewId}/marks`, markBody(m, swapped));
+      await api.create<{ mark: Mark }>(`/views/${viewId}/marks`, markBody(m, swapped));
     } catch (err) {
       failed.push(err instanceof Error ? err.message : String(err));
     }
@@ -188,7 +188,7 @@ export function SaveViewForm({
       async () => {
         const recordingId = await recordingIdIn(project.id);
         const body = createViewBody.parse({ title, recordingId, state: now.taken.state });
-        return (await api.post<{ view: ViewDetail }>(`/projects/${project.id}/views`, body)).view;
+        return (await api.create<{ view: ViewDetail }>(`/projects/${project.id}/views`, body)).view;
       },
       (err) => (err.status === 403 ? `Only the engineers and leads of ${project.name} can save views in it.` : null),
     );

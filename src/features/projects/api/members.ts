@@ -26,7 +26,7 @@ export function useInvite(projectId: number) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: async (body: InviteBody) =>
-      api.post<{ invitation: PendingInvitation; mailSent: boolean }>(`/projects/${projectId}/invitations`, body),
+      api.create<{ invitation: PendingInvitation; mailSent: boolean }>(`/projects/${projectId}/invitations`, body),
     onSuccess: () => refreshProject(qc, projectId),
   });
 }

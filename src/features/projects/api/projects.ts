@@ -44,7 +44,7 @@ export function useCreateProject() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: async (body: CreateProjectBody) =>
-      (await api.post<{ project: ProjectDetail }>('/projects', body)).project,
+      (await api.create<{ project: ProjectDetail }>('/projects', body)).project,
     onSuccess: (project) => {
       qc.setQueryData(projectKeys.detail(project.id), project);
       return qc.invalidateQueries({ queryKey: projectKeys.list() });

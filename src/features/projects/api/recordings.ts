@@ -20,7 +20,7 @@ export function useRegisterRecording() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: ({ projectId, body }: { projectId: number; body: RegisterRecordingBody }) =>
-      api.post<{ recording: RegisteredRecording; created: boolean }>(`/projects/${projectId}/recordings`, body),
+      api.create<{ recording: RegisteredRecording; created: boolean }>(`/projects/${projectId}/recordings`, body),
     onSuccess: (_answer, { projectId }) => refreshProject(qc, projectId),
   });
 }

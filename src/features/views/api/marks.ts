@@ -18,7 +18,7 @@ const refreshLists = (qc: QueryClient) => qc.invalidateQueries({ queryKey: [...v
 export function useCreateMark(viewId: number) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: async (body: CreateMarkBody) => (await api.post<{ mark: Mark }>(`/views/${viewId}/marks`, body)).mark,
+    mutationFn: async (body: CreateMarkBody) => (await api.create<{ mark: Mark }>(`/views/${viewId}/marks`, body)).mark,
     onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: viewKeys.marks(viewId) }), refreshLists(qc)]),
   });
 }
@@ -67,7 +67,7 @@ export function usePostComment(viewId: number, markId: number | null) {
   return useMutation({
     mutationFn: async (body: string) =>
       (
-        await api.post<{ comment: ThreadComment }>(
+        await api.create<{ comment: ThreadComment }>(
           markId === null ? `/views/${viewId}/comments` : `/marks/${markId}/comments`,
           { body },
         )

@@ -17,7 +17,7 @@ export function useCreateShareLink(viewId: number) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (body: { expiresAt: string | null; mayReply: boolean }) =>
-      api.post<{ link: ShareLinkSummary; url: string }>(`/views/${viewId}/links`, body),
+      api.create<{ link: ShareLinkSummary; url: string }>(`/views/${viewId}/links`, body),
     onSuccess: () => qc.invalidateQueries({ queryKey: viewKeys.links(viewId) }),
   });
 }

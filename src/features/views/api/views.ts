@@ -74,6 +74,6 @@ export function useArchiveView() {
 export function useShareByMail(viewId: number) {
   return useMutation({
     mutationFn: (body: ShareByMailBody) =>
-      api.post<{ sharedWith: { name: string; email: string } }>(`/views/${viewId}/share`, body),
+      api.create<{ sharedWith: { name: string; email: string } }>(`/views/${viewId}/share`, body),
   });
 }

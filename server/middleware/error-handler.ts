@@ -14,6 +14,29 @@ interface HttpishError {
   expose?: boolean;
 }
 
+/**
+ * During an outage every request fails the same way: the first failure is logged whole, then one line every
+ * few seconds says how many more answered 503, so the log stays readable.
+ */
+class ThrottledLog {
+  private lastAt = 0;
+  private suppressed = 0;
+  constructor(private readonly everyMs: number) {}
+
+  note(detail: string): void {
+    const now = Date.now();
+    if (now - this.lastAt < this.everyMs) {
+      this.suppressed += 1;
+      return;
+    }
+    const more = this.suppressed ? ` (and ${this.suppressed} more since the last line)` : '';
+    console.warn(`fanlight: database unavailable, answered 503${more}: ${detail}`);
+    this.lastAt = now;
+    this.suppressed = 0;
+  }
+}
+const dbOutageLog = new ThrottledLog(5000);
+
 /** Seconds a client should wait before retrying when the database is away. */
 const DB_RETRY_AFTER_S = 2;
 
@@ -32,7 +55,7 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) 
     return;
   }
   if (isDatabaseUnavailable(err)) {
-    console.warn(`fanlight: database unavailable for ${req.method} ${req.originalUrl}: ${(err as Error).message}`);
+    dbOutageLog.note(`${req.method} ${req.originalUrl}: ${(err as Error).message}`);
     res.set('Retry-After', String(DB_RETRY_AFTER_S));
     res.status(503).json(new DatabaseUnavailableError().toBody());
     return;

@@ -1,5 +1,6 @@
 import type { RequestHandler } from 'express';
 import session from 'express-session';
+import { isDatabaseUnavailable } from '../db/db-errors';
 import type { Knex } from 'knex';
 import { KnexSessionStore } from './session-store';
 
@@ -40,7 +41,9 @@ export function sessionMiddleware(db: Knex, secret: string) {
   const middleware: RequestHandler = (req, res, next) => {
     sessions(req, res, (err?: unknown) => {
       if (err && res.headersSent) {
-        console.warn(`fanlight: session not saved after answering ${req.method} ${req.originalUrl}: ${(err as Error)?.message ?? String(err)}`);
+        if (!isDatabaseUnavailable(err)) {
+          console.warn(`fanlight: session not saved after answering ${req.method} ${req.originalUrl}: ${(err as Error)?.message ?? String(err)}`);
+        }
         return;
       }
       next(err);

@@ -194,6 +194,12 @@ export class PrivateMariaDb {
     if (isAlive(pid)) process.kill(pid, 'SIGKILL');
   }
 
+  /** Stops watching (the instance itself keeps running). */
+  unsupervise(): void {
+    if (this.supervisor) clearInterval(this.supervisor);
+    this.supervisor = undefined;
+  }
+
   /** True while mariadbd's pid (from its pid file) is alive. */
   isRunning(): boolean {
     return this.runningPid() !== null;

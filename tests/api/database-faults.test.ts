@@ -87,6 +87,34 @@ describe('database faults', () => {
     expect(rejections).toEqual([]);
   });
 
+  it('uses a MariaDB that was already running and leaves it running when it stops', async () => {
+    const adopter = testMariaDb();
+    await adopter.start();
+    expect(adopter.adopted).toBe(true);
+    await adopter.stop();
+    expect(mariadb.isRunning()).toBe(true);
+    expect((await fetch(`${server.url}/api/health`)).status).toBe(200);
+  });
+
+  it('starts a MariaDB that died again, says so, and the app is healthy after it without a restart', async () => {
+    const supervisor = testMariaDb();
+    const log: string[] = [];
+    supervisor.supervise((line) => log.push(line), 100);
+    try {
+      await mariadb.terminate('SIGKILL'); // a crash: InnoDB recovers at the next start
+      expect((await fetch(`${server.url}/api/health`)).status).toBe(503);
+      const deadline = Date.now() + 30_000;
+      while (!log.some((l) => l.includes('restarted')) && Date.now() < deadline) await sleep(100);
+      expect(log[0]).toMatch(/is not running .*restarting it in 1 s/);
+      expect(log.some((l) => l.includes('restarted'))).toBe(true);
+      expect(await healthyWithin(server.url, 5000)).toBeLessThan(5000);
+      const after = await send(server.url, session, 'GET', `/api/views/${viewId}/marks`);
+      expect(after.status).toBe(200);
+    } finally {
+      supervisor.unsupervise();
+    }
+  });
+
   it('answers 503 while MariaDB is stopped and succeeds again once it is back, in the same process', async () => {
     const run = `stop-${randomUUID().slice(0, 6)}`;
     const started = Date.now();

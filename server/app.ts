@@ -125,6 +125,7 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
     close() {
       mailer.close();
       session.store.close();
+      auth.close();
       idempotency.close();
     },
   };

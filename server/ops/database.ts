@@ -12,7 +12,7 @@ export interface PreparedDatabase {
 }
 
 export async function prepareDatabase(
-  instance: 'app' | 'test' | 'bench',
+  instance: 'app' | 'test' | 'bench' | 'load',
   db: DbConfig,
   { recreate = false } = {},
 ): Promise<PreparedDatabase> {

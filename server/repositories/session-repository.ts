@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import { sessionsEndedFor } from '../services/cache-notices';
 
 /** The express-session table (sid, sess JSON, expired): the session store's queries and ending sessions. */
 export class SessionRepository {
@@ -36,6 +37,8 @@ export class SessionRepository {
   async endAllFor(userId: number, exceptSid?: string, db: Knex = this.db): Promise<number> {
     const q = db('sessions').whereRaw("JSON_VALUE(sess, '$.userId') = ?", [String(userId)]);
     if (exceptSid) q.whereNot('sid', exceptSid);
-    return q.delete();
+    const ended = await q.delete();
+    sessionsEndedFor(userId);
+    return ended;
   }
 }

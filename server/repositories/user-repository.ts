@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import type { SiteRole, PublicUser } from '../schemas/auth';
+import { userChanged } from '../services/cache-notices';
 
 export interface UserRecord extends PublicUser {
   passwordHash: string;
@@ -89,6 +90,7 @@ export class UserAdminRepository {
     if (changes.passwordHash !== undefined) row.password_hash = changes.passwordHash;
     if (changes.disabled !== undefined) row.disabled_at = changes.disabled ? db.fn.now() : null;
     await db('users').where({ id }).update(row);
+    userChanged(id);
   }
 
   async countActiveAdmins(db: Knex = this.db): Promise<number> {

@@ -6,7 +6,7 @@ import { MemberRepository } from '../repositories/project-repository';
 import type { PublicUser } from '../schemas/auth';
 import type { ProjectMember } from '../schemas/projects';
 import type { NotificationSettings, UpdateNotificationsBody } from '../schemas/views';
-import { mentionedMembers } from './mentions';
+import { mentionedHandles, mentionedMembers } from './mentions';
 
 /** Work that runs after the answer went out (mail), so responses stay fast. */
 export type FollowUp = () => Promise<void>;
@@ -130,6 +130,8 @@ export class NotificationService {
 
   /** A mark placed or edited: members its text newly @mentions hear of it. */
   async markWritten(p: { actor: Actor; view: ViewRef; markId: number; text: string; previousText?: string }): Promise<void> {
+    // most marks mention nobody: then the project's member list (every member, on a big team) is not read
+    if (mentionedHandles(p.text).size === 0) return;
     const members = await this.members.listReachable(p.view.projectId);
     const before = new Set(p.previousText ? mentionedMembers(p.previousText, members).map((m) => m.userId) : []);
     const fresh = mentionedMembers(p.text, members).filter((m) => m.userId !== p.actor.id && !before.has(m.userId));

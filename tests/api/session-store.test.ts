@@ -7,6 +7,7 @@ import type { SessionData } from 'express-session';
 import { afterAll, afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { createDb } from '../../server/db/knex';
 import { KnexSessionStore } from '../../server/middleware/session-store';
+import { SessionRepository } from '../../server/repositories/session-repository';
 import { openTestDb, testConfig } from '../support/test-db';
 
 const sessionData = (userId: number, maxAgeMs = 3600_000): SessionData =>
@@ -41,8 +42,12 @@ describe('KnexSessionStore', () => {
 
   describe('with the database up', () => {
     const db = openTestDb();
-    const store = new KnexSessionStore(db, { cleanupIntervalMs: 0 });
-    afterAll(() => db.destroy());
+    // no cache and no touch throttle: each call reaches the table
+    const store = new KnexSessionStore(db, { cleanupIntervalMs: 0, cacheMs: 0, touchEveryMs: 0 });
+    afterAll(() => {
+      store.close();
+      return db.destroy();
+    });
 
     it('keeps, reads, touches and ends a session, each callback once', async () => {
       const sid = randomUUID();
@@ -59,6 +64,28 @@ describe('KnexSessionStore', () => {
       expect(rejections).toEqual([]);
     });
 
+    it('moves the stored expiry at most once per touch interval, and reuses a read session for the cache time', async () => {
+      const cached = new KnexSessionStore(db, { cleanupIntervalMs: 0, cacheMs: 60_000, touchEveryMs: 60_000 });
+      try {
+        const sid = randomUUID();
+        await calls((cb) => cached.set(sid, sessionData(43, 3600_000), cb));
+        const before = (await db('sessions').where({ sid }).first()).expired;
+        expect(await calls((cb) => cached.touch(sid, sessionData(43, 7 * 86_400_000), cb))).toEqual([[undefined]]);
+        expect((await db('sessions').where({ sid }).first()).expired).toEqual(before); // within the interval: no write
+        await db('sessions').where({ sid }).update({ sess: JSON.stringify({ userId: 43, changedInTable: true }) });
+        const got = await calls((cb) => cached.get(sid, cb));
+        expect(got[0][1]).not.toHaveProperty('changedInTable'); // from the cache
+        // a copy each time: changing what get() gave does not change the next answer
+        (got[0][1] as { userId: number }).userId = 1;
+        expect(((await calls((cb) => cached.get(sid, cb)))[0][1] as { userId: number }).userId).toBe(43);
+        // sessions ended for a user (password reset, account disabled) leave the cache at once
+        await new SessionRepository(db).endAllFor(43);
+        expect(await calls((cb) => cached.get(sid, cb))).toEqual([[null, null]]);
+      } finally {
+        cached.close();
+      }
+    });
+
     it('does not return an expired session', async () => {
       const sid = randomUUID();
       await db('sessions').insert({ sid, sess: JSON.stringify({ userId: 7 }), expired: new Date(Date.now() - 1000) });
@@ -70,7 +97,10 @@ describe('KnexSessionStore', () => {
     // A port nothing listens on stands for a database that is down.
     const dead = createDb({ ...testConfig().db, port: 1 });
     const store = new KnexSessionStore(dead, { cleanupIntervalMs: 0 });
-    afterAll(() => dead.destroy());
+    afterAll(() => {
+      store.close();
+      return dead.destroy();
+    });
 
     it.each([
       ['get', (cb: (...a: unknown[]) => void) => store.get('some-sid', cb)],

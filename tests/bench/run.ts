@@ -1,4 +1,5 @@
 /** `npm run bench`: the performance figures the README quotes. Not a test: it measures and prints. */
+import { runApiLoadBench } from './api-load-bench';
 import { runBrowserBench } from './browser-bench';
 import { runDecodeBench } from './decode-bench';
 import { runInverterBench } from './inverter-bench';
@@ -25,5 +26,15 @@ const bench = await runBrowserBench(log);
 if (bench) {
   targets.push(`drop to painted map under 1.5 s: ${Math.min(...bench.dropToPaintedMs) < 1500 ? 'met' : 'NOT met'}`);
   targets.push(`redraw under 16 ms: ${bench.redrawMs.p95 < 16 ? 'met' : 'NOT met'} (95th percentile)`);
+}
+console.log('the project store under load (API in its own process, loopback):');
+const load = await runApiLoadBench(log);
+for (const run of load) {
+  if (run.clients >= 200) {
+    targets.push(`200 clients: 1000 requests/s and p99 under 300 ms: ${run.perSecond >= 1000 && run.p99Ms < 300 ? 'met' : 'NOT met'}`);
+  } else if (run.clients === 20) {
+    targets.push(`20 clients: p99 under 50 ms: ${run.p99Ms < 50 ? 'met' : 'NOT met'}`);
+  }
+  targets.push(`${run.clients} clients: no acknowledged create lost: ${run.writesMissing === 0 ? 'met' : 'NOT met'}`);
 }
 for (const t of targets) log(t);

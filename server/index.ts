@@ -4,6 +4,9 @@ import { createApp } from './app';
 import { loadConfig, type AppConfig } from './config';
 import { createDb } from './db/knex';
 
+/** How long a stopping server waits for requests in flight before it cuts their connections. */
+export const STOP_GRACE_MS = 10_000;
+
 export async function serve(config: AppConfig = loadConfig()): Promise<{ server: Server; url: string; stop(): Promise<void> }> {
   const db = createDb(config.db);
   const { app, close } = createApp({ config, db });
@@ -15,10 +18,18 @@ export async function serve(config: AppConfig = loadConfig()): Promise<{ server:
   return {
     server,
     url: `http://${config.host}:${port}`,
+    /**
+     * Graceful stop: no new connections; requests in flight are answered (keep-alive connections close after
+     * their answer); after STOP_GRACE_MS whatever still hangs is cut. Then the pool closes.
+     */
     async stop() {
       const closed = new Promise<void>((resolve) => server.close(() => resolve()));
-      server.closeAllConnections();
+      server.closeIdleConnections();
+      const idleSweep = setInterval(() => server.closeIdleConnections(), 100);
+      const cut = setTimeout(() => server.closeAllConnections(), STOP_GRACE_MS);
       await closed;
+      clearInterval(idleSweep);
+      clearTimeout(cut);
       close();
       await db.destroy();
     },

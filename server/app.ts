@@ -33,6 +33,7 @@ import { PasswordResetService } from './services/password-reset-service';
 import { ProjectService } from './services/project-service';
 import { RecordingService } from './services/recording-service';
 import { ShareLinkService } from './services/share-link-service';
+import { ViewSaveService } from './services/view-save-service';
 import { ViewService } from './services/view-service';
 
 export const JSON_BODY_LIMIT = '200kb';
@@ -87,13 +88,13 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   api.use(session.middleware);
   api.use(loadUser(auth));
   api.use(csrfProtection([config.publicOrigin, ...config.extraOrigins]));
-  // the one route that takes a file checks its own type (415 for anything but multipart)
-  api.use(jsonBodiesOnly([/^\/views\/[^/]+\/snapshot$/]));
+  // the routes that take a file check their own types (the snapshot, and a view saved whole)
+  api.use(jsonBodiesOnly([/^\/projects\/[^/]+\/views$/, /^\/views\/[^/]+$/], [/^\/views\/[^/]+\/snapshot$/]));
   api.use(idempotency.middleware);
   api.use(authRoutes(auth, new PasswordResetService(db, mailer, config.publicOrigin)));
   api.use(projectRoutes(new ProjectService(db), invitations));
   api.use(recordingRoutes(new RecordingService(db)));
-  api.use(viewRoutes(views));
+  api.use(viewRoutes(views, new ViewSaveService(db, views, notifications)));
   api.use(markRoutes(new MarkService(db, notifications)));
   api.use(shareLinkRoutes(new ShareLinkService(db, views, notifications, config.publicOrigin)));
   api.use(notificationRoutes(notifications));

@@ -83,7 +83,8 @@ export async function restoreDatabase(db: DbConfig, file: string): Promise<{ tab
   client.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
   const exited = new Promise<number>((resolve) => client.on('close', (code) => resolve(code ?? 1)));
   const gzipped = file.endsWith('.gz');
-  await pipeline(createReadStream(file), ...(gzipped ? [createGunzip()] : []), client.stdin);
+  if (gzipped) await pipeline(createReadStream(file), createGunzip(), client.stdin);
+  else await pipeline(createReadStream(file), client.stdin);
   const code = await exited;
   if (code !== 0) throw new Error(`Restoring ${path.basename(file)} failed (exit ${code}): ${stderr.trim()}`);
   const check = await mysql.createConnection({ host: db.host, port: db.port, user: db.user, password: db.password, database: db.database });

@@ -12,11 +12,14 @@ import {
   archiveViewBody,
   createViewBody,
   listViewsQuery,
+  saveViewBody,
+  saveViewChangesBody,
   shareByMailBody,
   updateViewBody,
   viewIdParams,
 } from '../schemas/views';
 import { runAfterAnswer } from '../services/notification-service';
+import type { ViewSaveService } from '../services/view-save-service';
 import { ViewService } from '../services/view-service';
 
 /** Parses the query string with a zod schema, or answers 400 naming each bad parameter. */
@@ -53,6 +56,42 @@ function uploadError(err: unknown): AppError {
   return new ValidationError({ snapshot: 'The upload could not be read as multipart/form-data.' }, 'The upload could not be read.');
 }
 
+/** A whole view: the JSON form field `view` and the file field `snapshot` (multipart/form-data). */
+const viewParts = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: SNAPSHOT_MAX_BYTES, files: 1, fields: 1, fieldSize: 2 * 1024 * 1024 },
+  fileFilter: (_req, file, cb) => {
+    if (file.fieldname === 'snapshot' && bareType(file.mimetype) !== SNAPSHOT_CONTENT_TYPE) {
+      return cb(new UnsupportedMediaTypeError(`A snapshot is sent as ${SNAPSHOT_CONTENT_TYPE}, not ${file.mimetype || 'an untyped file'}.`));
+    }
+    cb(null, true);
+  },
+}).single('snapshot');
+
+/** Only multipart requests take the whole-view routes; a JSON request goes on to the plain route. */
+const onlyMultipart: RequestHandler = (req, _res, next) => next(req.is('multipart/form-data') ? undefined : 'route');
+
+/** Reads the parts and parses the `view` field as JSON with `schema`, naming each bad field. */
+function receiveViewParts<S extends z.ZodType>(schema: S): RequestHandler {
+  return (req, res, next) => {
+    viewParts(req, res, (err?: unknown) => {
+      if (err) return next(uploadError(err));
+      const text = (req.body as { view?: unknown } | undefined)?.view;
+      if (typeof text !== 'string') return next(new ValidationError({ view: 'Send the view as JSON in the form field "view".' }));
+      let json: unknown;
+      try {
+        json = JSON.parse(text);
+      } catch {
+        return next(new ValidationError({ view: 'The form field "view" is not valid JSON.' }));
+      }
+      const parsed = schema.safeParse(json);
+      if (!parsed.success) return next(new ValidationError(fieldErrors(parsed.error)));
+      req.body = parsed.data;
+      next();
+    });
+  };
+}
+
 const receiveSnapshot: RequestHandler = (req, res, next) => {
   if (!req.is('multipart/form-data')) {
     return next(new UnsupportedMediaTypeError(`Send the snapshot as multipart/form-data, in the field "snapshot" of type ${SNAPSHOT_CONTENT_TYPE}.`));
@@ -77,8 +116,44 @@ export async function sendSnapshot(req: Request, res: Response, snapshot: Stored
 }
 
 /** Saved views and their snapshots. The role each needs is checked in ViewService (404 non-member, 403 low role). */
-export function viewRoutes(views: ViewService): Router {
+export function viewRoutes(views: ViewService, saves: ViewSaveService): Router {
   const router = Router();
+
+  // A view saved whole (state, snapshot and marks in one transaction). Registered before the JSON routes of
+  // the same paths: a request that is not multipart passes on to those.
+  router.post(
+    '/projects/:id/views',
+    requireSession,
+    onlyMultipart,
+    async (req, _res, next) => {
+      await saves.mayCreate(currentUser(req), parseParams(projectIdParams, req.params).id); // before a byte is read
+      next();
+    },
+    receiveViewParts(saveViewBody),
+    async (req, res) => {
+      const { id } = parseParams(projectIdParams, req.params);
+      const { view, marks, followUp } = await saves.saveNew(currentUser(req), id, req.body, req.file);
+      res.status(201).json({ view, marks });
+      runAfterAnswer(followUp);
+    },
+  );
+
+  router.patch(
+    '/views/:id',
+    requireSession,
+    onlyMultipart,
+    async (req, _res, next) => {
+      await views.mayUploadSnapshot(currentUser(req), parseParams(viewIdParams, req.params).id);
+      next();
+    },
+    receiveViewParts(saveViewChangesBody),
+    async (req, res) => {
+      const { id } = parseParams(viewIdParams, req.params);
+      const { view, marks, followUp } = await saves.saveChanges(currentUser(req), id, req.body, req.file);
+      res.json({ view, marks });
+      runAfterAnswer(followUp);
+    },
+  );
 
   router.get('/projects/:id/views', requireSession, async (req, res) => {
     const { id } = parseParams(projectIdParams, req.params);

@@ -477,3 +477,23 @@ export const updateNotificationsBody = z
     path: ['replies'],
   });
 export type UpdateNotificationsBody = z.infer<typeof updateNotificationsBody>;
+
+// ---------------------------------------------------------------- a view saved whole
+
+/** At most this many new marks travel with one save. */
+export const MAX_MARKS_PER_SAVE = 200;
+const marksOfSave = z
+  .array(createMarkBody)
+  .max(MAX_MARKS_PER_SAVE, { error: `At most ${MAX_MARKS_PER_SAVE} marks in one save.` })
+  .default([]);
+
+/**
+ * A new view with its snapshot and its marks, stored in one transaction: the form field `view` holds this
+ * as JSON, the file field `snapshot` the snapshot (multipart/form-data).
+ */
+export const saveViewBody = createViewBody.extend({ marks: marksOfSave });
+export type SaveViewBody = z.infer<typeof saveViewBody>;
+
+/** Changes to a view saved whole: its state, a new snapshot and more marks, from the version edited. */
+export const saveViewChangesBody = z.object({ version, title: title.optional(), state: viewState, marks: marksOfSave });
+export type SaveViewChangesBody = z.infer<typeof saveViewChangesBody>;

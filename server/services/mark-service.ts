@@ -11,7 +11,7 @@ import type { FollowUp, NotificationService } from './notification-service';
 import { ViewAccess } from './view-access';
 
 const NO_MARK = 'Mark not found.';
-const short = (text: string, max = 60) => {
+export const short = (text: string, max = 60) => {
   const line = text.split('\n')[0];
   return line.length > max ? `${line.slice(0, max - 1)}…` : line;
 };

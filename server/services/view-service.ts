@@ -1,7 +1,7 @@
 import type { Knex } from 'knex';
 import { promisify } from 'node:util';
-import { gunzip as gunzipCb, gzip as gzipCb } from 'node:zlib';
-import { NotFoundError, StaleVersionError, UnsupportedMediaTypeError, ValidationError } from '../errors';
+import { gunzip as gunzipCb } from 'node:zlib';
+import { NotFoundError, StaleVersionError, ValidationError } from '../errors';
 import { ActivityRepository } from '../repositories/activity-repository';
 import { MemberRepository, ProjectRepository } from '../repositories/project-repository';
 import { SnapshotRepository, type StoredSnapshot } from '../repositories/view-repository';
@@ -19,10 +19,9 @@ import {
   type ViewState,
 } from '../schemas/views';
 import { NOTHING_TO_FOLLOW, type FollowUp, type NotificationService } from './notification-service';
-import { decodeSnapshot } from './snapshot-codec';
+import { checkSnapshot, type UploadedSnapshot } from './snapshot-upload';
 import { ViewAccess } from './view-access';
 
-const gzip = promisify(gzipCb);
 const gunzip = promisify(gunzipCb);
 
 /** A stored state in the newest shape; a state no version reads any more is passed on as stored. */
@@ -31,13 +30,7 @@ export function readViewState(stored: unknown): ViewState {
   return parsed.success ? upgradeViewState(parsed.data) : (stored as ViewState);
 }
 
-/** The media type without parameters, lower-cased. */
-const bareType = (contentType: string | undefined) => (contentType ?? '').split(';')[0].trim().toLowerCase();
-
-export interface UploadedSnapshot {
-  buffer: Buffer;
-  mimetype: string;
-}
+export type { UploadedSnapshot } from './snapshot-upload';
 
 /** Saved views: every member reads, engineers and leads save, the author or a lead changes, a lead archives. */
 export class ViewService {
@@ -62,7 +55,7 @@ export class ViewService {
     return this.access.views;
   }
 
-  private async detail(viewId: number, db: Knex = this.db): Promise<ViewDetail> {
+  async detail(viewId: number, db: Knex = this.db): Promise<ViewDetail> {
     const d = await this.views.detail(viewId, db);
     if (!d) throw new NotFoundError('View not found.');
     return { ...d, state: readViewState(d.state) };
@@ -175,22 +168,16 @@ export class ViewService {
     const { view, role } = await this.access.open(user.id, viewId, 'engineer', true);
     ViewAccess.requireAuthorOrLead(role, view.createdBy, user.id, 'the view');
     ViewAccess.requireNotArchived(view);
-    if (!file) throw new ValidationError({ snapshot: 'Attach the snapshot file in the form field "snapshot".' }, 'No snapshot file was sent.');
-    if (bareType(file.mimetype) !== SNAPSHOT_CONTENT_TYPE) {
-      throw new UnsupportedMediaTypeError(`A snapshot is sent as ${SNAPSHOT_CONTENT_TYPE}, not ${file.mimetype || 'an untyped file'}.`);
-    }
-    const decoded = decodeSnapshot(file.buffer);
-    if (!decoded.ok) throw new ValidationError(decoded.fields, decoded.message);
-    const compressed = await gzip(file.buffer);
+    const checked = await checkSnapshot(file);
     const outcome = await this.db.transaction(async (trx) => {
       const result = await this.snapshots.put(
         {
           viewId,
           contentType: SNAPSHOT_CONTENT_TYPE,
-          gzip: compressed,
-          rawSize: file.buffer.length,
-          width: decoded.header.width,
-          height: decoded.header.height,
+          gzip: checked.gzip,
+          rawSize: checked.rawSize,
+          width: checked.width,
+          height: checked.height,
           uploadedBy: user.id,
         },
         trx,

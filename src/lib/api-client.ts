@@ -52,7 +52,9 @@ const NETWORK_RETRY_DELAY_MS = 500;
 
 async function request<T>(method: Method, path: string, body?: unknown, retried = false, options: RequestOptions = {}): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' };
-  if (body !== undefined) headers['Content-Type'] = 'application/json';
+  const isForm = typeof FormData !== 'undefined' && body instanceof FormData;
+  // a FormData body sets its own multipart Content-Type (with the boundary)
+  if (body !== undefined && !isForm) headers['Content-Type'] = 'application/json';
   if (options.idempotencyKey) headers['Idempotency-Key'] = options.idempotencyKey;
   if (method !== 'GET') {
     try {
@@ -67,7 +69,7 @@ async function request<T>(method: Method, path: string, body?: unknown, retried 
       method,
       headers,
       credentials: 'same-origin',
-      body: body === undefined ? undefined : JSON.stringify(body),
+      body: body === undefined ? undefined : isForm ? (body as FormData) : JSON.stringify(body),
     });
   } catch {
     if (options.retryOnNetworkFailure) {
@@ -104,6 +106,9 @@ async function request<T>(method: Method, path: string, body?: unknown, retried 
 export const api = {
   get: <T>(path: string) => request<T>('GET', path),
   post: <T>(path: string, body?: unknown) => request<T>('POST', path, body ?? {}),
+  /** A multipart request (a file with its fields); a POST that creates gets an Idempotency-Key and one retry. */
+  sendForm: <T>(method: 'POST' | 'PATCH' | 'PUT', path: string, form: FormData) =>
+    request<T>(method, path, form, false, method === 'POST' ? { idempotencyKey: newIdempotencyKey(), retryOnNetworkFailure: true } : {}),
   /** A POST that creates a record: sent with a fresh Idempotency-Key and retried once if no answer came. */
   create: <T>(path: string, body?: unknown) =>
     request<T>('POST', path, body ?? {}, false, { idempotencyKey: newIdempotencyKey(), retryOnNetworkFailure: true }),

@@ -3,7 +3,15 @@ import { useState, type FormEvent } from 'react';
 import { Link } from 'react-router-dom';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import { registerRecordingBody } from '../../../../server/schemas/recordings';
-import { createViewBody, SNAPSHOT_CONTENT_TYPE, snapshotHeader, updateViewBody, type Mark, type SnapshotHeader, type ViewDetail } from '../../../../server/schemas/views';
+import {
+  createViewBody,
+  saveViewBody,
+  saveViewChangesBody,
+  SNAPSHOT_CONTENT_TYPE,
+  snapshotHeader,
+  type SnapshotHeader,
+  type ViewDetail,
+} from '../../../../server/schemas/views';
 import { encodeSnapshot } from '../../../../server/services/snapshot-codec';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
@@ -11,7 +19,7 @@ import { SelectField } from '../../../components/ui/select-field';
 import { TextField } from '../../../components/ui/text-field';
 import { linkClass } from '../../../components/ui/styles';
 import { paths } from '../../../config/paths';
-import { api, ApiError, type ApiErrorBody } from '../../../lib/api-client';
+import { api, ApiError } from '../../../lib/api-client';
 import { useMe } from '../../auth/api/auth';
 import { useProjects } from '../../projects/api/projects';
 import { projectRecordingsQuery, useRegisterRecording } from '../../projects/api/recordings';
@@ -29,24 +37,14 @@ export interface ViewCapture {
   swapped: boolean;
 }
 
-type Outcome = { tone: 'ok'; viewId: number; title: string; note?: string } | { tone: 'error'; message: string };
+type Outcome = { tone: 'ok'; viewId: number; title: string } | { tone: 'error'; message: string };
 
-async function putSnapshot(viewId: number, bytes: Uint8Array): Promise<void> {
-  const unreachable = () => new ApiError(0, 'NETWORK', 'The server cannot be reached. Check that Fanlight is running.');
-  let response: Response;
-  try {
-    const t = await fetch('/api/auth/csrf', { credentials: 'same-origin', headers: { Accept: 'application/json' } });
-    if (!t.ok) throw unreachable();
-    const { token } = (await t.json()) as { token: string };
-    const form = new FormData();
-    form.append('snapshot', new Blob([bytes.slice()], { type: SNAPSHOT_CONTENT_TYPE }), 'map.fls');
-    response = await fetch(`/api/views/${viewId}/snapshot`, { method: 'PUT', credentials: 'same-origin', headers: { 'X-CSRF-Token': token }, body: form });
-  } catch (e) {
-    throw e instanceof ApiError ? e : unreachable();
-  }
-  if (response.ok) return;
-  const err = ((await response.json().catch(() => undefined)) as { error?: ApiErrorBody } | undefined)?.error;
-  throw new ApiError(response.status, err?.code ?? `HTTP_${response.status}`, err?.message ?? `The server answered ${response.status}.`, err?.fields);
+/** The multipart body of a whole save: the view (with its marks) as JSON, and the snapshot file. */
+function wholeView(view: unknown, snapshot: Uint8Array): FormData {
+  const form = new FormData();
+  form.append('view', JSON.stringify(view));
+  form.append('snapshot', new Blob([snapshot.slice()], { type: SNAPSHOT_CONTENT_TYPE }), 'map.fls');
+  return form;
 }
 
 const issuesText = (issues: { path: PropertyKey[]; message: string }[]) =>
@@ -55,22 +53,10 @@ const issuesText = (issues: { path: PropertyKey[]; message: string }[]) =>
     .map((i) => (i.path.length ? `${i.path.map(String).join('.')}: ${i.message}` : i.message))
     .join(' ');
 
-/** Places the pending marks on a view; the messages of those the server refused. */
-async function placeMarks(viewId: number, marks: BenchMark[], swapped: boolean): Promise<string[]> {
-  const failed: string[] = [];
-  for (const m of marks) {
-    try {
-      await api.create<{ mark: Mark }>(`/views/${viewId}/marks`, markBody(m, swapped));
-    } catch (err) {
-      failed.push(err instanceof Error ? err.message : String(err));
-    }
-  }
-  return failed;
-}
-
 /**
  * Saves what the Bench shows as a view of a project: registers the recording there first when the
- * project does not have it yet, then creates the view, uploads its snapshot and places the pending marks.
+ * project does not have it yet, then stores the view, its snapshot and the pending marks in one request
+ * (one transaction on the server: all of it or nothing).
  * Opened from a saved view, it can instead save the changes into that view (its author or a lead).
  */
 export function SaveViewForm({
@@ -149,21 +135,14 @@ export function SaveViewForm({
     return { taken, header: header.data };
   };
 
-  /** Runs a save: writes the view, then its snapshot and the pending marks, and reports. */
-  const save = async (taken: ViewCapture, header: SnapshotHeader, writeView: () => Promise<ViewDetail>, refused: (e: ApiError) => string | null) => {
+  /** Runs a save (view, snapshot and pending marks in one request) and reports. */
+  const save = async (writeView: () => Promise<ViewDetail>, refused: (e: ApiError) => string | null) => {
     setBusy(true);
     try {
       const view = await writeView();
-      await putSnapshot(view.id, encodeSnapshot(header, taken.map));
-      const failed = await placeMarks(view.id, marks, taken.swapped);
       await qc.invalidateQueries({ queryKey: viewKeys.all });
-      setOutcome({
-        tone: 'ok',
-        viewId: view.id,
-        title: view.title,
-        note: failed.length ? `${failed.length} of the marks could not be placed: ${failed[0]}` : undefined,
-      });
-      if (failed.length === 0) onSaved();
+      setOutcome({ tone: 'ok', viewId: view.id, title: view.title });
+      onSaved();
     } catch (err) {
       const message = (err instanceof ApiError ? refused(err) : null) ?? (err instanceof Error ? err.message : String(err));
       setOutcome({ tone: 'error', message });
@@ -171,6 +150,8 @@ export function SaveViewForm({
       setBusy(false);
     }
   };
+
+  const pendingMarks = (swapped: boolean) => marks.map((m) => markBody(m, swapped));
 
   const onSubmit = async (e: FormEvent) => {
     e.preventDefault();
@@ -183,12 +164,11 @@ export function SaveViewForm({
       return;
     }
     await save(
-      now.taken,
-      now.header,
       async () => {
         const recordingId = await recordingIdIn(project.id);
-        const body = createViewBody.parse({ title, recordingId, state: now.taken.state });
-        return (await api.create<{ view: ViewDetail }>(`/projects/${project.id}/views`, body)).view;
+        const body = saveViewBody.parse({ title, recordingId, state: now.taken.state, marks: pendingMarks(now.taken.swapped) });
+        const form = wholeView(body, encodeSnapshot(now.header, now.taken.map));
+        return (await api.sendForm<{ view: ViewDetail }>('POST', `/projects/${project.id}/views`, form)).view;
       },
       (err) => (err.status === 403 ? `Only the engineers and leads of ${project.name} can save views in it.` : null),
     );
@@ -208,16 +188,20 @@ export function SaveViewForm({
       });
       return;
     }
-    const body = updateViewBody.safeParse({ version: fromVersion, ...(title.trim() ? { title } : {}), state: now.taken.state });
+    const body = saveViewChangesBody.safeParse({
+      version: fromVersion,
+      ...(title.trim() ? { title } : {}),
+      state: now.taken.state,
+      marks: pendingMarks(now.taken.swapped),
+    });
     if (!body.success) {
       setOutcome({ tone: 'error', message: issuesText(body.error.issues) });
       return;
     }
     await save(
-      now.taken,
-      now.header,
       async () => {
-        const { view } = await api.patch<{ view: ViewDetail }>(`/views/${fromView.view.id}`, body.data);
+        const form = wholeView(body.data, encodeSnapshot(now.header, now.taken.map));
+        const { view } = await api.sendForm<{ view: ViewDetail }>('PATCH', `/views/${fromView.view.id}`, form);
         setFromVersion(view.version);
         return view;
       },
@@ -264,7 +248,6 @@ export function SaveViewForm({
           <Link to={paths.view(outcome.viewId)} className={linkClass} data-testid="saved-view-link">
             {outcome.title}
           </Link>
-          {outcome.note && <span className="block pt-1 text-danger">{outcome.note}</span>}
         </Notice>
       )}
       <p className="text-xs text-mist-500">

@@ -14,7 +14,13 @@ import { email, personName } from './auth';
 
 // ---------------------------------------------------------------- view state, version 1
 
-const finite = z.number({ error: 'Enter a number.' });
+// Numbers in views and marks are axis values (Hz, rpm, s, dB): anything beyond 10¹² in size is an error
+// (1e308 would pass as a finite number and then break every drawing of it).
+const NUMBER_LIMIT = 1e12;
+const finite = z
+  .number({ error: 'Enter a number.' })
+  .min(-NUMBER_LIMIT, { error: 'Out of range: at most 10¹² in size.' })
+  .max(NUMBER_LIMIT, { error: 'Out of range: at most 10¹² in size.' });
 
 const windowNames = ['rect', 'hann', 'hamming', 'blackman-harris', 'flattop'] as const;
 const isPowerOfTwo = (n: number) => Number.isInteger(n) && n > 0 && (n & (n - 1)) === 0;

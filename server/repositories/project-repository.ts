@@ -101,6 +101,15 @@ export class ProjectRepository {
 export class MemberRepository {
   constructor(private readonly db: Knex) {}
 
+  /** The caller's role and whether the project is archived, in one query; null role for a non-member. */
+  async accessTo(projectId: number, userId: number): Promise<{ role: ProjectRole | null; archived: boolean }> {
+    const row = await this.db('projects as p')
+      .leftJoin('project_members as m', (j) => j.on('m.project_id', '=', 'p.id').andOnVal('m.user_id', '=', userId))
+      .where('p.id', projectId)
+      .first('m.role', 'p.archived_at');
+    return { role: row?.role ?? null, archived: Boolean(row?.archived_at) };
+  }
+
   async roleOf(projectId: number, userId: number, db: Knex = this.db): Promise<ProjectRole | null> {
     const row = await db('project_members').where({ project_id: projectId, user_id: userId }).first('role');
     return row?.role ?? null;

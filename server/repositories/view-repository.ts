@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import type { ProjectRole } from '../schemas/projects';
 import type { ListViewsQuery, SnapshotInfo, ViewDetail, ViewState, ViewSummary } from '../schemas/views';
 
 export const parseJson = <T>(v: string | T): T => (typeof v === 'string' ? (JSON.parse(v) as T) : v);
@@ -66,6 +67,28 @@ export class ViewRepository {
       created_by: v.createdBy,
     });
     return id;
+  }
+
+  /** The view with the caller's role in its project and whether the project is archived: one query. */
+  async findWithAccess(id: number, userId: number): Promise<{ view: ViewRecord; role: ProjectRole | null; projectArchived: boolean } | null> {
+    const row = await this.db('views as v')
+      .join('projects as p', 'p.id', 'v.project_id')
+      .leftJoin('project_members as m', (j) => j.on('m.project_id', '=', 'v.project_id').andOnVal('m.user_id', '=', userId))
+      .where('v.id', id)
+      .first(
+        'v.id',
+        'v.project_id',
+        'v.recording_id',
+        'v.title',
+        'v.state',
+        'v.version',
+        'v.created_by',
+        'v.archived_at',
+        'm.role',
+        'p.archived_at as project_archived_at',
+      );
+    if (!row) return null;
+    return { view: fromRow(row as ViewRow), role: row.role ?? null, projectArchived: Boolean(row.project_archived_at) };
   }
 
   async find(id: number, db: Knex = this.db): Promise<ViewRecord | null> {
@@ -177,7 +200,6 @@ export class ViewRepository {
       }
       return query;
     };
-    const [{ n }] = await filtered().count({ n: '*' });
     const order = q.order ?? (q.sort === 'title' || q.sort === 'author' || q.sort === 'recording' ? 'asc' : 'desc');
     const rows = await filtered()
       .select(
@@ -193,6 +215,8 @@ export class ViewRepository {
         // a thread is each mark's plus the view's own (mark_id null, counted as 0)
         db('comments as c').select(db.raw('COUNT(DISTINCT IFNULL(c.mark_id, 0))')).whereRaw('c.view_id = v.id').as('open_threads'),
         db('view_snapshots as s').count('*').whereRaw('s.view_id = v.id').as('has_snapshot'),
+        // the number of matches before paging, in the same query (a window over the filtered rows)
+        db.raw('COUNT(*) OVER () AS total_count'),
       )
       .orderBy([
         { column: SORT_COLUMNS[q.sort], order },
@@ -200,8 +224,10 @@ export class ViewRepository {
       ])
       .limit(q.pageSize)
       .offset((q.page - 1) * q.pageSize);
+    // past the last page no row carries the total: count then (rare)
+    const total = rows.length ? Number(rows[0].total_count) : Number((await filtered().count({ n: '*' }))[0].n);
     return {
-      total: Number(n),
+      total,
       views: rows.map((r) => ({
         id: r.id,
         title: r.title,

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import { ConflictError, ForbiddenError, NotFoundError } from '../errors';
-import { MemberRepository, ProjectRepository } from '../repositories/project-repository';
+import { MemberRepository } from '../repositories/project-repository';
 import type { ProjectRole } from '../schemas/projects';
 
 const RANK: Record<ProjectRole, number> = { viewer: 1, engineer: 2, lead: 3 };
@@ -18,26 +18,26 @@ export const atLeast = (role: ProjectRole, min: ProjectRole) => RANK[role] >= RA
  */
 export class ProjectPolicy {
   private readonly members: MemberRepository;
-  private readonly projects: ProjectRepository;
 
   constructor(db: Knex) {
     this.members = new MemberRepository(db);
-    this.projects = new ProjectRepository(db);
   }
 
   async require(projectId: number, userId: number, min: ProjectRole): Promise<ProjectRole> {
-    const role = await this.members.roleOf(projectId, userId);
-    if (!role) throw new NotFoundError('Project not found.');
-    if (!atLeast(role, min)) throw new ForbiddenError(`Only ${WHO[min]} may do that in this project.`);
-    return role;
+    return ProjectPolicy.judge(await this.members.roleOf(projectId, userId), min);
   }
 
   /** As require(), and the project must not be archived (changes to an archived project are refused). */
   async requireWritable(projectId: number, userId: number, min: ProjectRole): Promise<ProjectRole> {
-    const role = await this.require(projectId, userId, min);
-    if (await this.projects.isArchived(projectId)) {
-      throw new ConflictError('This project is archived. A lead can restore it first.');
-    }
+    const { role, archived } = await this.members.accessTo(projectId, userId); // one query for both checks
+    return ProjectPolicy.judge(role, min, archived);
+  }
+
+  /** The rule itself, for callers that read the role with their own query. */
+  static judge(role: ProjectRole | null, min: ProjectRole, archived?: boolean): ProjectRole {
+    if (!role) throw new NotFoundError('Project not found.');
+    if (!atLeast(role, min)) throw new ForbiddenError(`Only ${WHO[min]} may do that in this project.`);
+    if (archived) throw new ConflictError('This project is archived. A lead can restore it first.');
     return role;
   }
 }

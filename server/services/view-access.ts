@@ -21,12 +21,10 @@ export class ViewAccess {
 
   /** The view and the caller's role in its project; `writable`: the project must not be archived. */
   async open(userId: number, viewId: number, min: ProjectRole, writable = false): Promise<{ view: ViewRecord; role: ProjectRole }> {
-    const view = await this.views.find(viewId);
-    if (!view) throw new NotFoundError(NO_VIEW);
-    const role = await ViewAccess.asViewNotFound(() =>
-      writable ? this.policy.requireWritable(view.projectId, userId, min) : this.policy.require(view.projectId, userId, min),
-    );
-    return { view, role };
+    const found = await this.views.findWithAccess(viewId, userId);
+    if (!found) throw new NotFoundError(NO_VIEW);
+    const role = await ViewAccess.asViewNotFound(async () => ProjectPolicy.judge(found.role, min, writable && found.projectArchived));
+    return { view: found.view, role };
   }
 
   /** Project roles for a route that names the project (or a link, a mark) rather than the view. */

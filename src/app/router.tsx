@@ -1,4 +1,5 @@
 import { createBrowserRouter, Navigate, RouterProvider } from 'react-router-dom';
+import { RouteError } from '../components/errors/route-error';
 import { AppShell } from '../components/layouts/app-shell';
 import { RequireSignIn } from '../components/layouts/require-sign-in';
 import { paths } from '../config/paths';
@@ -17,28 +18,34 @@ import { SignInPage } from './routes/sign-in';
 import { ViewPage } from './routes/view';
 
 const router = createBrowserRouter([
-  { path: paths.signIn, element: <SignInPage /> },
-  { path: paths.forgotPassword, element: <ForgotPasswordPage /> },
-  { path: paths.resetPassword, element: <ResetPasswordPage /> },
-  // Outside the guard: an invitee may have no account yet.
-  { path: paths.invitation(':token'), element: <InvitationPage /> },
-  { path: paths.outbox, element: <OutboxPage /> },
-  // Outside the guard: a share link opens one view without an account.
-  { path: paths.shared(':token'), element: <SharedViewPage /> },
   {
-    element: <RequireSignIn />,
+    // every page below shows RouteError if it fails to render, instead of a blank tab
+    errorElement: <RouteError />,
     children: [
+      { path: paths.signIn, element: <SignInPage /> },
+      { path: paths.forgotPassword, element: <ForgotPasswordPage /> },
+      { path: paths.resetPassword, element: <ResetPasswordPage /> },
+      // Outside the guard: an invitee may have no account yet.
+      { path: paths.invitation(':token'), element: <InvitationPage /> },
+      { path: paths.outbox, element: <OutboxPage /> },
+      // Outside the guard: a share link opens one view without an account.
+      { path: paths.shared(':token'), element: <SharedViewPage /> },
       {
-        element: <AppShell />,
+        element: <RequireSignIn />,
         children: [
-          { index: true, element: <Navigate to={paths.projects} replace /> },
-          { path: paths.projects, element: <ProjectsPage /> },
-          { path: paths.project(':id'), element: <ProjectPage /> },
-          { path: paths.view(':id'), element: <ViewPage /> },
-          { path: paths.bench, element: <BenchPage /> },
-          { path: paths.settings, element: <SettingsPage /> },
-          { path: paths.adminUsers, element: <AdminUsersPage /> },
-          { path: '*', element: <NotFoundPage /> },
+          {
+            element: <AppShell />,
+            children: [
+              { index: true, element: <Navigate to={paths.projects} replace /> },
+              { path: paths.projects, element: <ProjectsPage /> },
+              { path: paths.project(':id'), element: <ProjectPage /> },
+              { path: paths.view(':id'), element: <ViewPage /> },
+              { path: paths.bench, element: <BenchPage /> },
+              { path: paths.settings, element: <SettingsPage /> },
+              { path: paths.adminUsers, element: <AdminUsersPage /> },
+              { path: '*', element: <NotFoundPage /> },
+            ],
+          },
         ],
       },
     ],

@@ -1,6 +1,7 @@
 /**
- * The one way the client talks to /api: JSON in and out, the session cookie, and errors turned into
- * ApiError with the server's `{ error: { code, message, fields } }` shape.
+ * The one way the client talks to /api: JSON (or a multipart form, or bytes) in and out, the session cookie,
+ * the CSRF token on every write, an Idempotency-Key on creates, and errors turned into ApiError with the
+ * server's `{ error: { code, message, fields } }` shape (ConflictWithCurrent when a 409 brings the record).
  */
 export interface ApiErrorBody {
   code: string;
@@ -17,6 +18,17 @@ export class ApiError extends Error {
   ) {
     super(message);
     this.name = 'ApiError';
+  }
+}
+
+/** A 409 that came with the record as it is now (`current` beside the error): the page shows the newer one. */
+export class ConflictWithCurrent<T> extends ApiError {
+  constructor(
+    message: string,
+    readonly current: T,
+  ) {
+    super(409, 'CONFLICT', message);
+    this.name = 'ConflictWithCurrent';
   }
 }
 
@@ -46,6 +58,8 @@ interface RequestOptions {
   idempotencyKey?: string;
   /** Send once more when the request never got an answer (network failure); safe only with a key. */
   retryOnNetworkFailure?: boolean;
+  /** The answer is bytes (the browser undoes Content-Encoding: gzip), not JSON. */
+  binary?: boolean;
 }
 
 const NETWORK_RETRY_DELAY_MS = 500;
@@ -80,6 +94,7 @@ async function request<T>(method: Method, path: string, body?: unknown, retried 
     throw new ApiError(0, 'NETWORK', 'The server cannot be reached. Check that Fanlight is running.');
   }
   if (response.status === 204) return undefined as T;
+  if (options.binary && response.ok) return new Uint8Array(await response.arrayBuffer()) as T;
   const text = await response.text();
   let data: unknown = undefined;
   try {
@@ -89,6 +104,8 @@ async function request<T>(method: Method, path: string, body?: unknown, retried 
   }
   if (!response.ok) {
     const err = (data as { error?: ApiErrorBody } | undefined)?.error;
+    const current = (data as { current?: unknown } | undefined)?.current;
+    if (response.status === 409 && current !== undefined) throw new ConflictWithCurrent(err?.message ?? 'Changed in the meantime.', current);
     if (err?.code === 'CSRF_REJECTED' && !retried) {
       forgetCsrfToken(); // the session changed under us (signed in elsewhere, expired): fetch a new token once
       return request<T>(method, path, body, true, options);
@@ -105,6 +122,8 @@ async function request<T>(method: Method, path: string, body?: unknown, retried 
 
 export const api = {
   get: <T>(path: string) => request<T>('GET', path),
+  /** GET of a binary resource (a snapshot). */
+  getBytes: (path: string) => request<Uint8Array>('GET', path, undefined, false, { binary: true }),
   post: <T>(path: string, body?: unknown) => request<T>('POST', path, body ?? {}),
   /** A multipart request (a file with its fields); a POST that creates gets an Idempotency-Key and one retry. */
   sendForm: <T>(method: 'POST' | 'PATCH' | 'PUT', path: string, form: FormData) =>

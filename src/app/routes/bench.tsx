@@ -1,5 +1,6 @@
 import { useCallback, useEffect, useRef } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
+import { ErrorBoundary } from '../../components/errors/error-boundary';
 import { Notice } from '../../components/ui/notice';
 import { linkClass } from '../../components/ui/styles';
 import { paths } from '../../config/paths';
@@ -115,14 +116,15 @@ export function BenchPage() {
               : its settings, guides, zoom and marks.
             </p>
           )}
-          <Workbench
-            key={`${open.entry.fingerprint}:${fromView.kind === 'ready' ? fromView.value.view.id : ''}`}
-            recording={open}
-            intake={intake}
-            preferredProjectId={preferredProjectId}
-            fromView={fromView.kind === 'ready' ? fromView.value : undefined}
-            onClose={close}
-          />
+          <ErrorBoundary key={`${open.entry.fingerprint}:${fromView.kind === 'ready' ? fromView.value.view.id : ''}`} region="The workbench">
+            <Workbench
+              recording={open}
+              intake={intake}
+              preferredProjectId={preferredProjectId}
+              fromView={fromView.kind === 'ready' ? fromView.value : undefined}
+              onClose={close}
+            />
+          </ErrorBoundary>
         </>
       ) : (
         <div className="grid items-start gap-4 lg:grid-cols-[17.5rem_minmax(0,1fr)]">

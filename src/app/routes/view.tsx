@@ -2,6 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import type { Mark, ViewDetail } from '../../../server/schemas/views';
+import { ErrorBoundary } from '../../components/errors/error-boundary';
 import { Button } from '../../components/ui/button';
 import { Notice } from '../../components/ui/notice';
 import { Section } from '../../components/ui/section';
@@ -30,7 +31,11 @@ export function ViewPage() {
   const raw = useParams().id ?? '';
   const id = /^[1-9]\d*$/.test(raw) ? Number(raw) : null;
   if (id === null) return <ViewNotFound />;
-  return <ViewScreen key={id} id={id} />;
+  return (
+    <ErrorBoundary key={id} region="The view">
+      <ViewScreen id={id} />
+    </ErrorBoundary>
+  );
 }
 
 function ViewScreen({ id }: { id: number }) {

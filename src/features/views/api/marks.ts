@@ -2,7 +2,6 @@ import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient }
 import type { CreateMarkBody, Mark, ThreadComment } from '../../../../server/schemas/views';
 import { api } from '../../../lib/api-client';
 import { viewKeys } from './keys';
-import { patchKeepingConflict } from './raw';
 
 export const marksQuery = (viewId: number) =>
   queryOptions({
@@ -28,7 +27,7 @@ export function useUpdateMarkText(viewId: number) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: async ({ id, version, text }: { id: number; version: number; text: string }) =>
-      (await patchKeepingConflict<{ mark: Mark }, Mark>(`/marks/${id}`, { version, text })).mark,
+      (await api.patch<{ mark: Mark }>(`/marks/${id}`, { version, text })).mark,
     onSuccess: (mark) => {
       qc.setQueryData<Mark[]>(viewKeys.marks(viewId), (old) => old?.map((m) => (m.id === mark.id ? mark : m)));
     },

@@ -1,9 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { SnapshotHeader } from '../../../../server/schemas/views';
 import { decodeSnapshot } from '../../../../server/services/snapshot-codec';
-import { ApiError } from '../../../lib/api-client';
+import { api, ApiError } from '../../../lib/api-client';
 import { viewKeys } from './keys';
-import { getBytes } from './raw';
 
 export interface DecodedSnapshot {
   header: SnapshotHeader;
@@ -12,7 +11,7 @@ export interface DecodedSnapshot {
 }
 
 async function readSnapshot(path: string): Promise<DecodedSnapshot> {
-  const decoded = decodeSnapshot(await getBytes(path));
+  const decoded = decodeSnapshot(await api.getBytes(path));
   if (!decoded.ok) throw new ApiError(0, 'BAD_SNAPSHOT', `The snapshot cannot be read: ${decoded.message}`);
   return { header: decoded.header, map: decoded.map };
 }

@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { TextAreaField } from '../../../components/ui/text-area-field';
 import { useDeleteMark, useUpdateMarkText } from '../api/marks';
-import { ConflictWithCurrent } from '../api/raw';
+import { ConflictWithCurrent } from '../../../lib/api-client';
 import { MarkByline, MarkText } from './mark-card';
 
 /** A mark's text and byline with Edit and Delete, for its author or a lead. */

@@ -29,6 +29,12 @@ export function authRoutes(auth: AuthService, resets: PasswordResetService): Rou
     res.json({ user: currentUser(req) });
   });
 
+  // "Who am I?" for a page that may have no session: 200 with user null rather than a 401 (which a browser
+  // logs as an error in every anonymous visitor's console). Scripts keep /auth/me and its 401.
+  router.get('/auth/session', (req, res) => {
+    res.set('Cache-Control', 'no-store').json({ user: req.user ?? null });
+  });
+
   router.get('/auth/csrf', (req, res) => {
     res.set('Cache-Control', 'no-store').json({ token: csrfTokenFor(req) });
   });

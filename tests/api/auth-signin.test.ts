@@ -46,6 +46,15 @@ describe('sign-in', () => {
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['email', 'password']);
   });
 
+  it('answers 200 with user null on /api/auth/session without a session, and the user with one', async () => {
+    const anon = await t.agent().get('/api/auth/session');
+    expect(anon.status).toBe(200);
+    expect(anon.body).toEqual({ user: null });
+    const s = await sessionFor(t.app, 'engineer@fanlight.test', DEMO_PASSWORD);
+    const me = await s.request('GET', '/api/auth/session');
+    expect(me.body.user.email).toBe('engineer@fanlight.test');
+  });
+
   it('answers 401 on /api/auth/me without a session, and after sign-out', async () => {
     expect((await t.agent().get('/api/auth/me')).status).toBe(401);
     const s = await sessionFor(t.app, 'lead@fanlight.test', DEMO_PASSWORD);

@@ -96,6 +96,7 @@ const ROWS: Row[] = [
   },
   { method: 'POST', route: '/api/auth/signout', expect: all(204), ownSession: true, call: () => ({ path: '/api/auth/signout' }) },
   { method: 'GET', route: '/api/auth/me', expect: signedIn(200), call: () => ({ path: '/api/auth/me' }) },
+  { method: 'GET', route: '/api/auth/session', expect: all(200), call: () => ({ path: '/api/auth/session' }) },
   {
     method: 'POST',
     route: '/api/auth/password-reset/request',

@@ -31,6 +31,20 @@ describe('sign in (browser)', () => {
     await page.close();
   });
 
+  it('an anonymous visitor of the sign-in page sees no error in the console', async () => {
+    const page = await browser.newPage();
+    const errors: string[] = [];
+    page.on('console', (m) => {
+      if (m.type() === 'error') errors.push(m.text());
+    });
+    await page.goto(`${baseUrl}/projects`);
+    await page.waitForURL((u) => u.pathname === '/signin');
+    await expect.poll(() => page.getByRole('button', { name: /sign in/i }).first().isVisible()).toBe(true);
+    await page.waitForLoadState('networkidle');
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
   it('a wrong password shows the error and stays on Sign in', async () => {
     const page = await browser.newPage();
     await signIn(page, baseUrl, 'engineer@fanlight.test', 'wrong-password');

@@ -1,20 +1,13 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { PublicUser, SignInBody } from '../../../../server/schemas/auth';
-import { api, ApiError, forgetCsrfToken } from '../../../lib/api-client';
+import { api, forgetCsrfToken } from '../../../lib/api-client';
 
 export const authKeys = { me: ['auth', 'me'] as const };
 
-/** The signed-in user, or null when there is no session (a 401 is an answer here, not an error). */
+/** The signed-in user, or null when there is no session (asked so that no session is a 200, not a 401). */
 export const meQuery = queryOptions({
   queryKey: authKeys.me,
-  queryFn: async (): Promise<PublicUser | null> => {
-    try {
-      return (await api.get<{ user: PublicUser }>('/auth/me')).user;
-    } catch (e) {
-      if (e instanceof ApiError && e.status === 401) return null;
-      throw e;
-    }
-  },
+  queryFn: async (): Promise<PublicUser | null> => (await api.get<{ user: PublicUser | null }>('/auth/session')).user,
   staleTime: 60_000,
 });
 

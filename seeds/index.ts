@@ -4,14 +4,18 @@
  */
 import type { Knex } from 'knex';
 import { hashPassword } from '../server/services/passwords';
+import { seedDemoContent } from './demo-content';
 import { DEMO_PASSWORD, demoAccounts, demoProject } from './demo-scenario';
 
 export interface SeedReport {
   usersCreated: number;
   projectCreated: boolean;
+  recordingsRegistered: number;
+  viewCreated: boolean;
 }
 
-export async function seedDemo(db: Knex): Promise<SeedReport> {
+/** `demoDir`: where the demo recordings are (written there if missing); with it the project gets its content. */
+export async function seedDemo(db: Knex, { demoDir }: { demoDir?: string } = {}): Promise<SeedReport> {
   let usersCreated = 0;
   const ids = new Map<string, number>();
   for (const account of demoAccounts) {
@@ -52,5 +56,6 @@ export async function seedDemo(db: Knex): Promise<SeedReport> {
       });
     });
   }
-  return { usersCreated, projectCreated };
+  const content = demoDir ? await seedDemoContent(db, demoDir) : { recordingsRegistered: 0, viewCreated: false };
+  return { usersCreated, projectCreated, ...content };
 }

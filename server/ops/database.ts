@@ -14,7 +14,7 @@ export interface PreparedDatabase {
 export async function prepareDatabase(
   instance: 'app' | 'test' | 'bench' | 'load',
   db: DbConfig,
-  { recreate = false } = {},
+  { recreate = false, demoDir }: { recreate?: boolean; demoDir?: string } = {},
 ): Promise<PreparedDatabase> {
   const mariadb = new PrivateMariaDb({ baseDir: path.join(DATA_DIR, `mariadb-${instance}`), port: db.port });
   await mariadb.start();
@@ -23,7 +23,7 @@ export async function prepareDatabase(
     const knex = createDb(db);
     try {
       const applied = await migrateLatest(knex);
-      const seed = await seedDemo(knex);
+      const seed = await seedDemo(knex, { demoDir });
       return { mariadb, applied, seed };
     } finally {
       await knex.destroy();

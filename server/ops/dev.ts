@@ -13,7 +13,7 @@ import { onShutdown } from './shutdown';
 process.env.PUBLIC_ORIGIN ??= 'http://127.0.0.1:5173'; // links in mail open the dev server
 process.env.ALLOWED_ORIGINS ??= 'http://localhost:5173'; // the dev server by its other name
 const config = loadConfig();
-const { mariadb } = await prepareDatabase('app', config.db);
+const { mariadb } = await prepareDatabase('app', config.db, { demoDir: config.demoRecordingsDir });
 onShutdown(() => mariadb.stop());
 mariadb.supervise();
 prepareDemoRecordings(config);

@@ -3,9 +3,10 @@ import { loadConfig } from '../config';
 import { createDb } from '../db/knex';
 import { seedDemo } from '../../seeds/index';
 
-const db = createDb(loadConfig().db);
+const config = loadConfig();
+const db = createDb(config.db);
 try {
-  console.log(JSON.stringify(await seedDemo(db)));
+  console.log(JSON.stringify(await seedDemo(db, { demoDir: config.demoRecordingsDir })));
 } finally {
   await db.destroy();
 }

@@ -13,13 +13,14 @@ import { onShutdown } from './shutdown';
 
 const config = loadConfig();
 console.log(`fanlight: starting MariaDB on 127.0.0.1:${config.db.port}`);
-const { mariadb, applied, seed } = await prepareDatabase('app', config.db);
+const { mariadb, applied, seed } = await prepareDatabase('app', config.db, { demoDir: config.demoRecordingsDir });
 if (mariadb.adopted) console.log('fanlight: MariaDB was already running; it is used as it is and left running when Fanlight stops');
 onShutdown(() => mariadb.stop());
 // If the database dies under the app, start it again (with a growing wait); the app answers 503 meanwhile.
 mariadb.supervise();
 if (applied.length) console.log(`fanlight: applied ${applied.length} migration(s)`);
 if (seed.usersCreated || seed.projectCreated) console.log('fanlight: seeded the demo accounts and project');
+if (seed.recordingsRegistered || seed.viewCreated) console.log('fanlight: seeded the demo recordings and the demo view');
 
 console.log('fanlight: building the client');
 console.log(`fanlight: client ${await buildClientIfStale(config.clientDir)}`);

@@ -36,7 +36,7 @@ const config = loadConfig();
 
 await holdRunLock('test');
 console.log(`fanlight test: starting the test MariaDB on 127.0.0.1:${config.db.port}`);
-const { mariadb } = await prepareDatabase('test', config.db, { recreate: true });
+const { mariadb } = await prepareDatabase('test', config.db, { recreate: true, demoDir: config.demoRecordingsDir });
 onShutdown(() => mariadb.stop());
 rmSync(config.smtp.outboxDir, { recursive: true, force: true }); // each run reads only its own mail
 await startMailFakeIfWanted(config);

@@ -14,5 +14,19 @@ export const paths = {
   outbox: '/outbox',
 } as const;
 
+/**
+ * The Bench opening one recording: a demo recording is fetched from the server's demo files (`demo`), any
+ * other comes from this browser's library by its fingerprint (`open`); `view` starts from a saved view,
+ * `project` preselects the project to save into.
+ */
+export function benchFor(r: { fingerprint: string; demoFile?: string | null; viewId?: number; projectId?: number }): string {
+  const q = new URLSearchParams();
+  if (r.demoFile) q.set('demo', r.demoFile);
+  else q.set('open', r.fingerprint);
+  if (r.viewId !== undefined) q.set('view', String(r.viewId));
+  if (r.projectId !== undefined) q.set('project', String(r.projectId));
+  return `${paths.bench}?${q.toString()}`;
+}
+
 /** Sign in, then come back to `next` (a same-site path). */
 export const signInThen = (next: string) => `${paths.signIn}?next=${encodeURIComponent(next)}`;

@@ -11,6 +11,8 @@ import { SampleRateForm } from '../../features/bench/components/sample-rate-form
 import { Workbench } from '../../features/bench/components/workbench';
 import { useRecordingReader } from '../../features/bench/hooks/use-recording-reader';
 import { useViewOnBench } from '../../features/bench/hooks/use-view-on-bench';
+import { demoSetup, fetchDemoRecording, useDemoRecordings } from '../../features/bench/api/demo-recordings';
+import { errorMessage } from '../../lib/error-message';
 import type { LibraryEntry } from '../../features/library/library-store';
 import { warmPool } from '../../lib/workers/analysis-pool';
 
@@ -34,8 +36,10 @@ export function BenchPage() {
       setParams(
         (prev) => {
           const next = new URLSearchParams(prev);
-          // a saved view belongs to its recording: opening another one (or none) leaves it
-          if (fingerprint !== prev.get('open')) next.delete('view');
+          // a saved view belongs to its recording: opening another one (or none) leaves it; a demo recording
+          // fetched for the view (`demo`) is that view's recording
+          if (fingerprint !== prev.get('open') && !(fingerprint && prev.get('demo'))) next.delete('view');
+          next.delete('demo');
           if (fingerprint) next.set('open', fingerprint);
           else next.delete('open');
           return next;
@@ -57,6 +61,25 @@ export function BenchPage() {
     requested.current = openParam;
     void openFromLibrary(openParam);
   }, [openParam, openFromLibrary]);
+
+  // `?demo=<file>`: one of the server's demo recordings, fetched and read like a dropped file
+  const demoParam = params.get('demo');
+  const demos = useDemoRecordings();
+  const requestedDemo = useRef<string | null>(null);
+  const { read, showNotice } = reader;
+  useEffect(() => {
+    if (!demoParam || demoParam === requestedDemo.current || demos.isPending) return;
+    requestedDemo.current = demoParam;
+    const recording = demos.data?.find((d) => d.file === demoParam);
+    if (!recording) {
+      showNotice({ tone: 'error', message: `This server offers no demo recording named ${demoParam}.` });
+      return;
+    }
+    fetchDemoRecording(recording.file).then(
+      (blob) => void read(blob, recording.file, undefined, demoSetup(recording)),
+      (e: unknown) => showNotice({ tone: 'error', message: errorMessage(e) }),
+    );
+  }, [demoParam, demos.isPending, demos.data, read, showNotice]);
 
   const close = () => {
     reader.close();

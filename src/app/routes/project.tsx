@@ -1,3 +1,4 @@
+import { useMemo } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Notice } from '../../components/ui/notice';
 import { linkClass } from '../../components/ui/styles';
@@ -10,6 +11,7 @@ import { RecordingsSection } from '../../features/projects/components/recordings
 import { useViewCountsByRecording } from '../../features/views/api/views';
 import { ViewsSection } from '../../features/views/components/views-section';
 import { ApiError } from '../../lib/api-client';
+import { useDemoRecordings } from '../../features/bench/api/demo-recordings';
 
 export function ProjectPage() {
   const raw = useParams().id ?? '';
@@ -21,6 +23,8 @@ export function ProjectPage() {
 function Project({ id }: { id: number }) {
   const { data: project, isPending, error } = useProject(id);
   const { data: viewCounts } = useViewCountsByRecording(id);
+  const { data: demos } = useDemoRecordings();
+  const demoFiles = useMemo(() => new Set((demos ?? []).map((d) => d.file)), [demos]);
   if (isPending) return <p className="px-6 py-8 text-sm text-mist-500">Loading the project…</p>;
   // The server answers 404 for projects one is not a member of, as for those that do not exist.
   if (error instanceof ApiError && error.status === 404) return <ProjectNotFound />;
@@ -36,7 +40,7 @@ function Project({ id }: { id: number }) {
       <ProjectHeader project={project} />
       <div className="flex flex-col gap-6">
         <ViewsSection projectId={id} isLead={project.role === 'lead'} />
-        <RecordingsSection projectId={id} viewCounts={viewCounts} />
+        <RecordingsSection projectId={id} viewCounts={viewCounts} demoFiles={demoFiles} />
       </div>
       <div className="mt-6 grid items-start gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <MembersSection projectId={id} isLead={project.role === 'lead'} />

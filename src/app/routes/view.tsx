@@ -7,8 +7,9 @@ import { Button } from '../../components/ui/button';
 import { Notice } from '../../components/ui/notice';
 import { Section } from '../../components/ui/section';
 import { linkClass } from '../../components/ui/styles';
-import { paths } from '../../config/paths';
+import { benchFor, paths } from '../../config/paths';
 import { useMe } from '../../features/auth/api/auth';
+import { useDemoRecordings } from '../../features/bench/api/demo-recordings';
 import { membersQuery } from '../../features/projects/api/members';
 import { projectQuery } from '../../features/projects/api/projects';
 import { projectRecordingsQuery } from '../../features/projects/api/recordings';
@@ -65,8 +66,11 @@ function LoadedView({ view }: { view: ViewDetail }) {
   const marks = useMarks(view.id);
   const members = useQuery({ ...membersQuery(view.projectId), enabled: isEngineer });
   const recordings = useQuery({ ...projectRecordingsQuery(view.projectId), enabled: view.recordingId !== null });
-  const fingerprint = recordings.data?.find((r) => r.id === view.recordingId)?.fingerprint ?? null;
+  const recording = recordings.data?.find((r) => r.id === view.recordingId) ?? null;
+  const fingerprint = recording?.fingerprint ?? null;
   const inLibrary = useInLocalLibrary(fingerprint);
+  const demos = useDemoRecordings();
+  const demoFile = recording && demos.data?.some((d) => d.file === recording.name) ? recording.name : null;
   const archive = useArchiveView();
 
   const [params, setParams] = useSearchParams();
@@ -172,10 +176,12 @@ function LoadedView({ view }: { view: ViewDetail }) {
               members={(members.data?.members ?? []).filter((m) => m.userId !== me?.id)}
             />
           )}
-          {inLibrary.data && fingerprint && (
+          {fingerprint && (inLibrary.data || demoFile) && (
             <Section title="On the Bench">
-              <p className="mb-2 text-sm text-mist-300">This browser's library holds the recording of this view.</p>
-              <Link to={`${paths.bench}?open=${fingerprint}&view=${view.id}`} className={linkClass}>
+              <p className="mb-2 text-sm text-mist-300">
+                {inLibrary.data ? "This browser's library holds the recording of this view." : 'The recording of this view is one of the demo recordings.'}
+              </p>
+              <Link to={benchFor({ fingerprint, demoFile: inLibrary.data ? null : demoFile, viewId: view.id })} className={linkClass}>
                 Open live on the Bench
               </Link>
             </Section>

@@ -12,7 +12,7 @@ import type { RegisteredRecording } from '../../../../server/schemas/recordings'
 import { Notice } from '../../../components/ui/notice';
 import { Section } from '../../../components/ui/section';
 import { linkClass, tableHeadRowClass } from '../../../components/ui/styles';
-import { paths } from '../../../config/paths';
+import { benchFor, paths } from '../../../config/paths';
 import { formatDateTime, formatHz, formatSeconds } from '../../../lib/format';
 import { SortHeader } from '../../views/components/sort-header';
 import { useProjectRecordings } from '../api/recordings';
@@ -24,7 +24,16 @@ type Numeric = { numeric?: boolean };
  * The recordings registered with the project, sorted in the browser (the list is short and whole).
  * `viewCounts`: saved views per recording id, archived ones included; the column waits until it is known.
  */
-export function RecordingsSection({ projectId, viewCounts }: { projectId: number; viewCounts?: Map<number, number> }) {
+export function RecordingsSection({
+  projectId,
+  viewCounts,
+  demoFiles,
+}: {
+  projectId: number;
+  viewCounts?: Map<number, number>;
+  /** The server's demo recordings by file name: those open on the Bench straight from the server. */
+  demoFiles?: ReadonlySet<string>;
+}) {
   const { data: recordings, isPending, error } = useProjectRecordings(projectId);
   const [sorting, setSorting] = useState<SortingState>([]);
 
@@ -68,6 +77,23 @@ export function RecordingsSection({ projectId, viewCounts }: { projectId: number
         meta: { numeric: true } satisfies Numeric,
         cell: (c) => <span className="font-mono">{viewCounts ? c.getValue() : '…'}</span>,
       }),
+      col.display({
+        id: 'open',
+        header: () => <span className="sr-only">Open</span>,
+        cell: ({ row }) => {
+          const demoFile = demoFiles?.has(row.original.name) ? row.original.name : null;
+          return (
+            <Link
+              to={benchFor({ fingerprint: row.original.fingerprint, demoFile, projectId })}
+              className={`${linkClass} whitespace-nowrap`}
+              aria-label={`Open ${row.original.name} on the Bench`}
+              title={demoFile ? 'A demo recording: the Bench fetches it from the server' : 'Opens from this browser\'s library; if it is not there, drop the file on the Bench'}
+            >
+              Open on the Bench
+            </Link>
+          );
+        },
+      }),
       col.accessor('registeredAt', {
         id: 'registered',
         header: 'Registered',
@@ -85,7 +111,7 @@ export function RecordingsSection({ projectId, viewCounts }: { projectId: number
         ),
       }),
     ],
-    [viewCounts],
+    [viewCounts, demoFiles, projectId],
   );
 
   const table = useReactTable({

@@ -12,6 +12,8 @@ apt_wanted=()
 command -v mariadb-install-db >/dev/null 2>&1 || [ -x /usr/bin/mariadb-install-db ] || apt_wanted+=(mariadb-server)
 if [ "$mode" = test ]; then
   [ -x /usr/bin/chromium ] || apt_wanted+=(chromium)
+  # the report test renders the PDF with pdftoppm and reads its text with pdftotext
+  command -v pdftoppm >/dev/null 2>&1 || apt_wanted+=(poppler-utils)
 fi
 if [ ${#apt_wanted[@]} -gt 0 ]; then
   mapfile -t apt_wanted < <(printf '%s\n' "${apt_wanted[@]}" | sort -u)

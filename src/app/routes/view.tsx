@@ -20,6 +20,7 @@ import { useArchiveView, useView } from '../../features/views/api/views';
 import { EditableMarkBody } from '../../features/views/components/mark-editor';
 import { MarkThread, ViewThread } from '../../features/views/components/member-threads';
 import { PlaceMarkForm } from '../../features/views/components/place-mark-form';
+import { ReportButton } from '../../features/views/components/report-button';
 import { SharePanel } from '../../features/views/components/share-panel';
 import type { PendingPlace } from '../../features/views/components/snapshot-figure';
 import { ViewHeading } from '../../features/views/components/view-heading';
@@ -176,6 +177,17 @@ function LoadedView({ view }: { view: ViewDetail }) {
               members={(members.data?.members ?? []).filter((m) => m.userId !== me?.id)}
             />
           )}
+          <Section title="Report">
+            <p className="mb-2 text-sm text-mist-300">A printable PDF of this view: settings, map with guides and marks, findings, tracks and threads.</p>
+            <ReportButton
+              view={view}
+              projectName={project.data?.name ?? ''}
+              recording={recording}
+              snapshot={snapshot.data}
+              marks={marks.data}
+              me={me?.name ?? ''}
+            />
+          </Section>
           {fingerprint && (inLibrary.data || demoFile) && (
             <Section title="On the Bench">
               <p className="mb-2 text-sm text-mist-300">

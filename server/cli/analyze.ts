@@ -12,6 +12,7 @@ import { mapCommand } from './commands/map';
 import { spectrumCommand } from './commands/spectrum';
 import { speedCommand } from './commands/speed';
 import { openFileSource } from './node-file-source';
+import { reportWarnings } from './recording-input';
 import { Options, parseArgs, UsageError } from './options';
 
 const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter FILE [options] (see the README, "Batch mode")';
@@ -20,6 +21,7 @@ async function info(file: string) {
   const source = await openFileSource(file);
   try {
     const h = await readRecordingHeader(source);
+    reportWarnings(h.fileName, h.warnings);
     return {
       format: h.format,
       sampleRate: h.sampleRateHz,

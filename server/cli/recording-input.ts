@@ -8,10 +8,27 @@ import { openFileSource } from './node-file-source';
 import type { Options } from './options';
 import { UsageError } from './options';
 
+const warned = new Set<string>();
+
+/**
+ * What the reader noticed but read anyway (a data chunk cut short, a partial frame): one line each on
+ * stderr, once per file, so the JSON on stdout stays clean and the exit status stays 0.
+ */
+export function reportWarnings(fileName: string, warnings: readonly string[]): void {
+  for (const w of warnings) {
+    const line = `warning: ${fileName}: ${w.replace(/\s+/g, ' ')}`;
+    if (warned.has(line)) continue;
+    warned.add(line);
+    process.stderr.write(`${line}\n`);
+  }
+}
+
 export async function readChannels(file: string, channels: number[]): Promise<DecodedRecording> {
   const source = await openFileSource(file);
   try {
-    return await decodeRecording(source, { channels, shared: true });
+    const rec = await decodeRecording(source, { channels, shared: true });
+    reportWarnings(rec.header.fileName, rec.header.warnings);
+    return rec;
   } finally {
     await source.close();
   }

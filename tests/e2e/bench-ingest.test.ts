@@ -64,4 +64,25 @@ describe('the Bench takes a recording in (browser)', () => {
     expect(await page.getByTestId('channel-list').locator('tbody tr').count()).toBe(2);
     await context.close();
   });
+
+  it('a WAV cut short opens what it holds and says so in a visible notice', async () => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await signIn(page, baseUrl, 'engineer@fanlight.test');
+    await page.waitForURL(`${baseUrl}/projects`);
+    await page.goto(`${baseUrl}/bench`);
+    const whole = wav(testChannels(2, 48_000), { bits: 16, sampleRateHz: 48_000 });
+    await page.getByTestId('drop-zone-input').setInputFiles({
+      name: 'cut-short.wav',
+      mimeType: 'audio/wav',
+      // the header promises 48 000 frames; the file holds 20 000 of them
+      buffer: Buffer.from(whole.subarray(0, 44 + 20_000 * 4)),
+    });
+    await expect.poll(() => page.getByTestId('channel-list').locator('tbody tr').count(), { timeout: 20_000 }).toBe(2);
+    const notice = page.getByTestId('recording-warnings');
+    await expect.poll(() => notice.isVisible()).toBe(true);
+    expect(await notice.textContent()).toMatch(/cut short.*20000 whole frames/);
+    expect(await page.getByTestId('recording-frames').textContent()).toBe('20000');
+    await context.close();
+  });
 });

@@ -188,14 +188,16 @@ export async function readWavHeader(source: ByteSource): Promise<RecordingHeader
 
   let dataBytes = data.declared;
   const available = source.size - data.offset;
-  if (dataBytes > available) {
+  const cutShort = dataBytes > available;
+  if (cutShort) {
     warnings.push(
       `The data chunk says ${dataBytes} bytes but the file holds ${available} after byte offset ${data.offset} (it was cut short); the ${Math.floor(available / fmt.blockAlign)} whole frames there were read.`,
     );
     dataBytes = available;
   }
   const frames = Math.floor(dataBytes / fmt.blockAlign);
-  if (dataBytes % fmt.blockAlign !== 0) {
+  // a file cut short says so once: its message already counts the whole frames that were read
+  if (dataBytes % fmt.blockAlign !== 0 && !cutShort) {
     warnings.push(`The data chunk ends in a partial frame of ${dataBytes % fmt.blockAlign} bytes, which was left out.`);
   }
   if (frames === 0) throw new RecordingError('NO_SAMPLES', `${name}: the data chunk at byte offset ${data.offset - 8} holds no whole sample frame.`);

@@ -51,6 +51,22 @@ describe('npm run -s analyze -- info', () => {
     expect(JSON.parse(r.stdout).sampleRate).toBeCloseTo(100, 6);
   });
 
+  it('reads a truncated WAV (its data chunk claims more than the file holds), exit 0, with one warning line on stderr', async () => {
+    const whole = wav(testChannels(2, 4800), { bits: 16, sampleRateHz: 48000 });
+    const file = path.join(dir, 'truncated.wav');
+    // cut in the middle of the data: 1000 whole frames of 4 bytes after the 44-byte header, and 2 bytes more
+    writeFileSync(file, whole.subarray(0, 44 + 4000 + 2));
+    for (const args of [['info', file], ['spectrum', file, '--channel', '0', '--block', '256']]) {
+      const r = await analyze(...args);
+      expect(r.code, r.stderr).toBe(0);
+      const lines = r.stderr.trim().split('\n');
+      expect(lines).toHaveLength(1);
+      expect(lines[0]).toMatch(/^warning: truncated\.wav: The data chunk says 19200 bytes but the file holds 4002 .*cut short.*1000 whole frames/);
+      JSON.parse(r.stdout); // stdout stays the JSON alone
+    }
+    expect(JSON.parse((await analyze('info', file)).stdout).frames).toBe(1000);
+  });
+
   it('exits 2 with one sentence on stderr, no stack, for bad input', async () => {
     const file = path.join(dir, 'broken.wav');
     writeFileSync(file, 'RIFF\x10\x00\x00\x00WAVEjunkjunk');

@@ -124,7 +124,20 @@ function frameVotes(peaks: Peak[], hump: Peak | null, lo: number, hi: number, vo
   }
 }
 
-/** The best centre of a vote histogram (half-bin units → bins), taking fc when 2·fc wins. */
+/** The highest group m·fc that may win the vote and still be traced back to fc. */
+const HARMONICS = 8;
+/** A centre is taken as fc under a winning multiple when its own support is at least this share. */
+const CANDIDATE_SHARE = 0.25;
+
+/**
+ * The carrier from a vote histogram (half-bin units → bins). Each family group votes for its own centre
+ * m·fc, and in a line-to-line voltage the group at fc is weaker than those at 2fc and above (the double
+ * Fourier series leaves fc ± 2fe and 2fc ± fe strongest, and fc itself absent [1]), so the best-supported
+ * centre may be a multiple k·fc. When a well-supported centre sits at the winner divided by a whole k
+ * (k = 2 … 8), and the winner's other multiples of it hold groups too, that lower centre is fc. A centre
+ * with no family of its own is no candidate, so fc/2 cannot be taken; two carriers of a schedule inside one
+ * vote window (8 and 12 kHz) are not whole multiples of each other and do not mix.
+ */
 function bestCentre(votes: Float32Array, lo: number, hi: number): { bin: number; score: number } {
   const tops: { h: number; score: number }[] = [];
   for (let h = 2 * lo + 1; h < 2 * hi - 1; h++) {
@@ -132,13 +145,41 @@ function bestCentre(votes: Float32Array, lo: number, hi: number): { bin: number;
     if (v > 0 && v >= votes[h - 1] && v > votes[h + 1]) tops.push({ h, score: v });
   }
   tops.sort((a, b) => b.score - a.score);
-  const best = tops[0];
-  if (!best) return { bin: NaN, score: 0 };
-  // when a runner-up sits at half the best centre, the best is 2·fc: report fc
-  for (const other of tops.slice(1, 3)) {
-    if (Math.abs(2 * other.h - best.h) <= 4 + 0.01 * best.h && other.score >= 0.3 * best.score) return { bin: other.h / 2, score: other.score };
+  const winner = tops[0];
+  if (!winner) return { bin: NaN, score: 0 };
+  let fc = winner;
+  for (const c of tops.slice(1, 12)) {
+    if (c.score < CANDIDATE_SHARE * winner.score || c.h >= fc.h) continue;
+    const k = Math.round(winner.h / c.h);
+    if (k < 2 || k > HARMONICS) continue;
+    if (Math.abs(winner.h - k * c.h) > 2 + 0.005 * winner.h) continue;
+    fc = c; // the lowest such centre: the fundamental of the winning group
   }
-  return { bin: best.h / 2, score: best.score };
+  // Neighbouring groups m·fc and (m+1)·fc pair up across their gap and vote for (m + ½)·fc + …: such a
+  // centre has no groups at its own multiples. A candidate whose multiples hold clearly more support
+  // (the harmonic sum over m = 1 … 4, half as much again) is the carrier.
+  const harmonicSum = (h: number) => {
+    let sum = 0;
+    for (let m = 1; m <= 4 && m * h < 2 * hi; m++) sum += votesNear(votes, m * h, 2 + 0.005 * m * h);
+    return sum;
+  };
+  let fcSum = harmonicSum(fc.h);
+  for (const c of tops.slice(0, 12)) {
+    if (c.score < CANDIDATE_SHARE * winner.score || c === fc) continue;
+    const sum = harmonicSum(c.h);
+    if (sum > 1.5 * fcSum) {
+      fc = c;
+      fcSum = sum;
+    }
+  }
+  return { bin: fc.h / 2, score: fc.score };
+}
+
+/** The largest vote within ±tol half-bins of h. */
+function votesNear(votes: Float32Array, h: number, tol: number): number {
+  let best = 0;
+  for (let i = Math.max(0, Math.floor(h - tol)); i <= Math.min(votes.length - 1, Math.ceil(h + tol)); i++) if (votes[i] > best) best = votes[i];
+  return best;
 }
 
 function runningMedian(x: Float64Array, width: number): Float64Array {
@@ -263,7 +304,7 @@ function interpolateRpm(frameTimeS: (f: number) => number, rpm: Float64Array, t:
  * bandwidth 2(Δf + f_mod), i.e. the sweep range plus twice the sweep rate). A steady line with its near
  * sidebands stays under 300 Hz and gives null.
  */
-export function carrierSpreadHz(avgPower: Float32Array | Float64Array, binHz: number, fcHz: number): number | null {
+export function carrierSpreadHz(avgPower: Float32Array | Float64Array, binHz: number, fcHz: number, feHz?: number): number | null {
   const k0 = Math.round(fcHz / binHz);
   const reach = Math.round((0.25 * fcHz) / binHz);
   const r = Math.max(4, Math.round(SPREAD_ENVELOPE_HZ / binHz));
@@ -288,7 +329,34 @@ export function carrierSpreadHz(avgPower: Float32Array | Float64Array, binHz: nu
   while (a > 0 && smooth[a - 1] >= limit) a--;
   while (b < smooth.length - 1 && smooth[b + 1] >= limit) b++;
   const widthHz = (b - a + 1 - 2 * r) * binHz; // less the envelope window's own width
-  return widthHz > SPREAD_MIN_HZ ? widthHz : null;
+  if (!(widthHz > SPREAD_MIN_HZ)) return null;
+  if (feHz !== undefined && feHz > 0 && linesAreSidebands(avgPower, k0 - reach + a, k0 - reach + b, binHz, fcHz, feHz)) return null;
+  return widthHz;
+}
+
+/**
+ * Whether the lines inside a hump are the carrier's own sidebands fc + n·fe: at low speed fe is a few tens
+ * of Hz, and fc ± fe, fc ± 3fe … lie closer together than the envelope bridges, so they look like a hump.
+ * A spread carrier's lines (the comb of a swept carrier at its sweep rate, or noise) mostly fall between
+ * them. The lines are the local maxima within 20 dB of the strongest (common practice); 80 % of them
+ * within a bin and a half of fc + n·fe, and at least three, make the hump a sideband family.
+ */
+function linesAreSidebands(power: Float32Array | Float64Array, from: number, to: number, binHz: number, fcHz: number, feHz: number): boolean {
+  let top = 0;
+  for (let k = from; k <= to; k++) if (power[k] > top) top = power[k];
+  const floor = top / 100;
+  let lines = 0;
+  let explained = 0;
+  const tolHz = 1.5 * binHz;
+  for (let k = Math.max(1, from); k <= Math.min(power.length - 2, to); k++) {
+    if (!(power[k] >= floor && power[k] > power[k - 1] && power[k] >= power[k + 1])) continue;
+    lines++;
+    const n = Math.round((k * binHz - fcHz) / feHz);
+    if (Math.abs(k * binHz - (fcHz + n * feHz)) <= tolHz) explained++;
+  }
+  // too few lines to tell, or lines closer than a bin apart: nothing to decide on
+  if (lines < 3 || feHz < 2 * tolHz) return false;
+  return explained >= 0.8 * lines;
 }
 
 /**
@@ -304,9 +372,17 @@ const SPREAD_MIN_HZ = 300;
  * not an average over the run, in which sidebands sweeping with speed would smear into a false hump).
  * null when most frames show a steady line.
  */
-export function runSpreadHz(power: Float32Array, bins: number, binHz: number, carrierHz: Float64Array, frames: number[]): number | null {
+export function runSpreadHz(
+  power: Float32Array,
+  bins: number,
+  binHz: number,
+  carrierHz: Float64Array,
+  frames: number[],
+  /** The electrical frequency per frame, Hz, when the pole pairs are known: lines at fc + n·fe are no spread */
+  feHz?: Float64Array,
+): number | null {
   const widths: number[] = [];
-  for (const f of frames) widths.push(carrierSpreadHz(power.subarray(f * bins, (f + 1) * bins), binHz, carrierHz[f]) ?? 0);
+  for (const f of frames) widths.push(carrierSpreadHz(power.subarray(f * bins, (f + 1) * bins), binHz, carrierHz[f], feHz?.[f]) ?? 0);
   if (!widths.length) return null;
   widths.sort((a, b) => a - b);
   const median = widths[widths.length >> 1];

@@ -84,10 +84,6 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   const times = Array.from({ length: layout.frames }, (_, f) => frameTimeS(layout, f));
   const shifts = carrierShifts(carrier.hz, (f) => frameTimeS(layout, f), frameRpm, layout.binHz);
 
-  // Spread: measured frame by frame (every second frame where the carrier is known)
-  const withCarrier = times.map((_, f) => f).filter((f) => f % 2 === 0 && Number.isFinite(carrier.hz[f]));
-  const spread = runSpreadHz(power, layout.bins, layout.binHz, carrier.hz, withCarrier);
-
   let pole: InverterReport['polePairs'];
   if (input.polePairs) pole = { value: input.polePairs, source: 'given', pattern: null, ambiguous: false, settledByChannel: false };
   else {
@@ -99,6 +95,12 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
     const est = inferPolePairs(observeSidebandOffsets(power, layout, carrier.hz, frameRpm));
     if (est.value === input.polePairs) pole.pattern = est.pattern;
   }
+
+  // Spread: measured frame by frame (every second frame where the carrier is known); with the pole pairs
+  // known, lines at fc + n·fe are sidebands, not spread
+  const withCarrier = times.map((_, f) => f).filter((f) => f % 2 === 0 && Number.isFinite(carrier.hz[f]));
+  const feHz = pole.value ? Float64Array.from(frameRpm, (r) => (pole.value! * r) / 60) : undefined;
+  const spread = runSpreadHz(power, layout.bins, layout.binHz, carrier.hz, withCarrier, feHz);
 
   const ctx = { rpm: frameRpm, carrierHz: carrier.hz, polePairs: pole.value ?? NaN };
   const familyList =

@@ -127,7 +127,7 @@ function frameVotes(peaks: Peak[], hump: Peak | null, lo: number, hi: number, vo
 /** The highest group m·fc that may win the vote and still be traced back to fc. */
 const HARMONICS = 8;
 /** A centre is taken as fc under a winning multiple when its own support is at least this share. */
-const CANDIDATE_SHARE = 0.25;
+const CANDIDATE_SHARE = 0.1;
 
 /**
  * The carrier from a vote histogram (half-bin units → bins). Each family group votes for its own centre
@@ -148,7 +148,7 @@ function bestCentre(votes: Float32Array, lo: number, hi: number): { bin: number;
   const winner = tops[0];
   if (!winner) return { bin: NaN, score: 0 };
   let fc = winner;
-  for (const c of tops.slice(1, 12)) {
+  for (const c of tops.slice(1, 40)) {
     if (c.score < CANDIDATE_SHARE * winner.score || c.h >= fc.h) continue;
     const k = Math.round(winner.h / c.h);
     if (k < 2 || k > HARMONICS) continue;
@@ -164,7 +164,7 @@ function bestCentre(votes: Float32Array, lo: number, hi: number): { bin: number;
     return sum;
   };
   let fcSum = harmonicSum(fc.h);
-  for (const c of tops.slice(0, 12)) {
+  for (const c of tops.slice(0, 40)) {
     if (c.score < CANDIDATE_SHARE * winner.score || c === fc) continue;
     const sum = harmonicSum(c.h);
     if (sum > 1.5 * fcSum) {
@@ -304,7 +304,13 @@ function interpolateRpm(frameTimeS: (f: number) => number, rpm: Float64Array, t:
  * bandwidth 2(Δf + f_mod), i.e. the sweep range plus twice the sweep rate). A steady line with its near
  * sidebands stays under 300 Hz and gives null.
  */
-export function carrierSpreadHz(avgPower: Float32Array | Float64Array, binHz: number, fcHz: number, feHz?: number): number | null {
+export function carrierSpreadHz(
+  avgPower: Float32Array | Float64Array,
+  binHz: number,
+  fcHz: number,
+  /** The shaft frequency fr, Hz, where the speed is known: lines on a comb of fc + n·q·fr are sidebands */
+  frHz?: number,
+): number | null {
   const k0 = Math.round(fcHz / binHz);
   const reach = Math.round((0.25 * fcHz) / binHz);
   const r = Math.max(4, Math.round(SPREAD_ENVELOPE_HZ / binHz));
@@ -318,7 +324,8 @@ export function carrierSpreadHz(avgPower: Float32Array | Float64Array, binHz: nu
     smooth[i] = m;
   }
   const sorted = Array.from(smooth).sort((a, b) => a - b);
-  const floor = sorted[Math.floor(sorted.length * 0.25)];
+  // a low percentile: a wide hump (a spread carrier with its sidebands) may fill half the window
+  const floor = sorted[Math.floor(sorted.length * 0.1)];
   // the strongest smoothed component near fc (the carrier line, or its hump)
   let ip = reach;
   for (let i = reach - Math.round(reach / 5); i <= reach + Math.round(reach / 5); i++) if (smooth[i] > smooth[ip]) ip = i;
@@ -330,33 +337,41 @@ export function carrierSpreadHz(avgPower: Float32Array | Float64Array, binHz: nu
   while (b < smooth.length - 1 && smooth[b + 1] >= limit) b++;
   const widthHz = (b - a + 1 - 2 * r) * binHz; // less the envelope window's own width
   if (!(widthHz > SPREAD_MIN_HZ)) return null;
-  if (feHz !== undefined && feHz > 0 && linesAreSidebands(avgPower, k0 - reach + a, k0 - reach + b, binHz, fcHz, feHz)) return null;
+  if (frHz !== undefined && frHz > 0 && linesAreSidebands(avgPower, k0 - reach + a, k0 - reach + b, binHz, fcHz, frHz)) return null;
   return widthHz;
 }
 
 /**
  * Whether the lines inside a hump are the carrier's own sidebands fc + n·fe: at low speed fe is a few tens
- * of Hz, and fc ± fe, fc ± 3fe … lie closer together than the envelope bridges, so they look like a hump.
- * A spread carrier's lines (the comb of a swept carrier at its sweep rate, or noise) mostly fall between
- * them. The lines are the local maxima within 20 dB of the strongest (common practice); 80 % of them
- * within a bin and a half of fc + n·fe, and at least three, make the hump a sideband family.
+ * of Hz, and fc ± fe, fc ± 3fe … (or fc ± 2fe, fc ± 4fe in a line-to-line voltage) lie closer together
+ * than the envelope bridges, so they look like a hump. Sidebands sit on a comb fc + n·q·fr, with fr the
+ * shaft frequency and q = p or 2p (p the pole pairs, 1 … 8, not needed here); a spread carrier's lines (the
+ * comb of a swept carrier at its sweep rate, or noise) mostly fall between them. The lines are the local
+ * maxima within 20 dB of the strongest (common practice); when 80 % of them, and at least two, sit within
+ * a bin and a half of one such comb whose teeth stand clearly apart, the hump is a sideband family.
  */
-function linesAreSidebands(power: Float32Array | Float64Array, from: number, to: number, binHz: number, fcHz: number, feHz: number): boolean {
+function linesAreSidebands(power: Float32Array | Float64Array, from: number, to: number, binHz: number, fcHz: number, frHz: number): boolean {
   let top = 0;
   for (let k = from; k <= to; k++) if (power[k] > top) top = power[k];
   const floor = top / 100;
-  let lines = 0;
-  let explained = 0;
-  const tolHz = 1.5 * binHz;
+  const lines: number[] = [];
   for (let k = Math.max(1, from); k <= Math.min(power.length - 2, to); k++) {
-    if (!(power[k] >= floor && power[k] > power[k - 1] && power[k] >= power[k + 1])) continue;
-    lines++;
-    const n = Math.round((k * binHz - fcHz) / feHz);
-    if (Math.abs(k * binHz - (fcHz + n * feHz)) <= tolHz) explained++;
+    if (power[k] >= floor && power[k] > power[k - 1] && power[k] >= power[k + 1]) lines.push(k * binHz);
   }
-  // too few lines to tell, or lines closer than a bin apart: nothing to decide on
-  if (lines < 3 || feHz < 2 * tolHz) return false;
-  return explained >= 0.8 * lines;
+  if (lines.length < 2) return false;
+  const tolHz = 1.5 * binHz;
+  for (let q = 1; q <= 16; q++) {
+    const spacing = q * frHz;
+    // a comb as fine as the tolerance explains anything
+    if (spacing < 4 * tolHz) continue;
+    let explained = 0;
+    for (const f of lines) {
+      const n = Math.round((f - fcHz) / spacing);
+      if (Math.abs(f - (fcHz + n * spacing)) <= tolHz) explained++;
+    }
+    if (explained >= 0.8 * lines.length) return true;
+  }
+  return false;
 }
 
 /**
@@ -378,11 +393,11 @@ export function runSpreadHz(
   binHz: number,
   carrierHz: Float64Array,
   frames: number[],
-  /** The electrical frequency per frame, Hz, when the pole pairs are known: lines at fc + n·fe are no spread */
-  feHz?: Float64Array,
+  /** The shaft frequency per frame, Hz, where the speed is known: lines on a sideband comb are no spread */
+  frHz?: Float64Array,
 ): number | null {
   const widths: number[] = [];
-  for (const f of frames) widths.push(carrierSpreadHz(power.subarray(f * bins, (f + 1) * bins), binHz, carrierHz[f], feHz?.[f]) ?? 0);
+  for (const f of frames) widths.push(carrierSpreadHz(power.subarray(f * bins, (f + 1) * bins), binHz, carrierHz[f], frHz?.[f]) ?? 0);
   if (!widths.length) return null;
   widths.sort((a, b) => a - b);
   const median = widths[widths.length >> 1];

@@ -96,11 +96,11 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
     if (est.value === input.polePairs) pole.pattern = est.pattern;
   }
 
-  // Spread: measured frame by frame (every second frame where the carrier is known); with the pole pairs
-  // known, lines at fc + n·fe are sidebands, not spread
+  // Spread: measured frame by frame (every second frame where the carrier is known); lines on a comb of
+  // the shaft frequency around fc are sidebands, not spread
   const withCarrier = times.map((_, f) => f).filter((f) => f % 2 === 0 && Number.isFinite(carrier.hz[f]));
-  const feHz = pole.value ? Float64Array.from(frameRpm, (r) => (pole.value! * r) / 60) : undefined;
-  const spread = runSpreadHz(power, layout.bins, layout.binHz, carrier.hz, withCarrier, feHz);
+  const frHz = Float64Array.from(frameRpm, (r) => r / 60);
+  const spread = runSpreadHz(power, layout.bins, layout.binHz, carrier.hz, withCarrier, frHz);
 
   const ctx = { rpm: frameRpm, carrierHz: carrier.hz, polePairs: pole.value ?? NaN };
   const familyList =

@@ -39,6 +39,13 @@ export interface TwoLevelPwmOptions {
   oversample?: number;
   /** Reference phase θ0 of leg a at t = 0, rad; default 0. */
   phaseRad?: number;
+  /**
+   * 'sine-triangle' (default): each leg compares its sine reference with the carrier. 'space-vector': the
+   * carrier-based equivalent of space-vector PWM, the three references shifted by the common offset
+   * −(max + min)/2 (min-max zero-sequence injection; Holmes & Lipo [2], ch. 6), which centres the active
+   * vectors in each carrier period and extends the linear range to M = 2/√3.
+   */
+  modulation?: 'sine-triangle' | 'space-vector';
 }
 
 export interface TwoLevelPwmResult {
@@ -234,10 +241,17 @@ export function simulateTwoLevelPwm(opts: TwoLevelPwmOptions): TwoLevelPwmResult
   let refA = 0;
   let refB = 0;
   let car = 0;
+  const spaceVector = opts.modulation === 'space-vector';
   const sampleGrid = () => {
     const angle = twoPi * fundamental.u + theta0;
     refA = m * Math.cos(angle);
     refB = m * Math.cos(angle - shiftB);
+    if (spaceVector) {
+      const refC = m * Math.cos(angle + shiftB);
+      const offset = -(Math.max(refA, refB, refC) + Math.min(refA, refB, refC)) / 2;
+      refA += offset;
+      refB += offset;
+    }
     car = triangle(carrier.u);
   };
   sampleGrid();

@@ -6,6 +6,7 @@
 import { readRecordingHeader } from '../../workers/io/decode-recording';
 import { RecordingError } from '../../workers/io/recording-error';
 import { SpeedError } from '../../workers/dsp/speed';
+import { extractCommand } from './commands/extract';
 import { inverterCommand } from './commands/inverter';
 import { levelsCommand } from './commands/levels';
 import { mapCommand } from './commands/map';
@@ -15,7 +16,7 @@ import { openFileSource } from './node-file-source';
 import { reportWarnings } from './recording-input';
 import { Options, parseArgs, UsageError } from './options';
 
-const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter FILE [options] (see the README, "Batch mode")';
+const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter|extract FILE [options] (see the README, "Batch mode")';
 
 async function info(file: string) {
   const source = await openFileSource(file);
@@ -41,6 +42,7 @@ const commands: Record<string, (file: string, o: Options) => Promise<unknown>> =
   speed: speedCommand,
   map: mapCommand,
   inverter: inverterCommand,
+  extract: extractCommand,
 };
 
 export async function main(argv: string[]): Promise<number> {
@@ -48,7 +50,7 @@ export async function main(argv: string[]): Promise<number> {
     const parsed = parseArgs(argv, USAGE);
     const run = commands[parsed.command];
     if (!run) throw new UsageError(`Unknown command "${parsed.command}". ${USAGE}`);
-    process.stdout.write(`${JSON.stringify(await run(parsed.file, new Options(parsed.options)))}\n`);
+    process.stdout.write(`${JSON.stringify(await run(parsed.file, new Options(parsed.options, parsed.sequence)))}\n`);
     return 0;
   } catch (e) {
     if (e instanceof RecordingError || e instanceof UsageError || e instanceof SpeedError || e instanceof RangeError) {

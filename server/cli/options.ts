@@ -7,6 +7,7 @@ export interface Parsed {
   command: string;
   file: string;
   options: Record<string, string | true>;
+  sequence: [string, string | true][];
 }
 
 export function parseArgs(argv: string[], usage: string): Parsed {
@@ -14,6 +15,8 @@ export function parseArgs(argv: string[], usage: string): Parsed {
   if (!command) throw new UsageError(`Name a command. ${usage}`);
   const positional: string[] = [];
   const options: Record<string, string | true> = {};
+  // every option in the order given, repeats included (extract's --order/--family list)
+  const sequence: [string, string | true][] = [];
   for (let i = 0; i < rest.length; i++) {
     const a = rest[i];
     if (a.startsWith('--')) {
@@ -21,18 +24,35 @@ export function parseArgs(argv: string[], usage: string): Parsed {
       const next = rest[i + 1];
       if (next !== undefined && !/^--[a-z]/.test(next)) {
         options[key] = next;
+        sequence.push([key, next]);
         i++;
-      } else options[key] = true;
+      } else {
+        options[key] = true;
+        sequence.push([key, true]);
+      }
     } else positional.push(a);
   }
   if (positional.length !== 1) throw new UsageError(`Give exactly one FILE. ${usage}`);
   // npm runs scripts from the package folder; a relative path means the caller's folder.
   const file = path.resolve(process.env.INIT_CWD ?? process.cwd(), positional[0]);
-  return { command, file, options };
+  return { command, file, options, sequence };
 }
 
 export class Options {
-  constructor(private readonly o: Record<string, string | true>) {}
+  constructor(
+    private readonly o: Record<string, string | true>,
+    private readonly seq: [string, string | true][] = Object.entries(o),
+  ) {}
+
+  /** The values of the named options in the order given on the command line, repeats included. */
+  sequence(keys: string[]): { key: string; value: string }[] {
+    return this.seq
+      .filter(([k]) => keys.includes(k))
+      .map(([key, value]) => {
+        if (value === true) throw new UsageError(`--${key} needs a value.`);
+        return { key, value };
+      });
+  }
 
   has(key: string): boolean {
     return key in this.o;

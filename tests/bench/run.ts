@@ -2,6 +2,7 @@
 import { runApiLoadBench } from './api-load-bench';
 import { runBrowserBench } from './browser-bench';
 import { runDecodeBench } from './decode-bench';
+import { runExtractBench } from './extract-bench';
 import { runInverterBench } from './inverter-bench';
 import { runMapBench } from './map-bench';
 
@@ -21,6 +22,9 @@ if (map.scipyRfft60S !== undefined) {
 console.log('inverter findings (batch CLI):');
 const inverter = runInverterBench(log);
 targets.push(`inverter command on 20 s under 3 s: ${inverter.bestS < 3 ? 'met' : 'NOT met'}`);
+console.log('Vold-Kalman extraction (batch CLI):');
+const extract = runExtractBench(log);
+targets.push(`extract on 20 s, 3 components under 5 s: ${extract.bestS < 5 ? 'met' : 'NOT met'}`);
 console.log('the Bench (headless Chromium):');
 const bench = await runBrowserBench(log);
 if (bench) {

@@ -37,6 +37,8 @@ export default defineConfig({
           include: ['tests/unit/**/*.test.{ts,tsx}'],
           environment: 'node',
           sequence: { groupOrder: 0 },
+          // CLI tests run whole commands in child processes; on a loaded 2-core machine 5 s is too tight
+          testTimeout: 30_000,
         },
       },
       {

@@ -7,6 +7,7 @@ import { carrierShifts, detectCarrier, runSpreadHz } from './carrier';
 import { carrierTonality, type ToneFinding } from './carrier-tonality';
 import { allowedN, inferPolePairs, observeSidebandOffsets, type FamilyPattern } from './pole-pairs';
 import { frameTimeS, type StftLayout } from './stft';
+import { resolveCrossings } from './crossing-tracks';
 import { trackAgainstSpeed, trackGuide, type Guide } from './tracks';
 import type { WindowName } from './window';
 
@@ -22,6 +23,8 @@ export interface InverterAnalysisInput {
   polePairs?: number;
   orders?: number[];
   families?: { m: number; n: number }[];
+  /** The map's own samples: with them, track points where guides cross come from the Vold–Kalman filter */
+  samples?: Float32Array;
   rpmStep?: number;
   carrierMinHz?: number;
   /** Where to judge the tonality of the carrier tones, s; default where the strongest family peaks */
@@ -50,6 +53,8 @@ export interface FamilyTrackReport {
   hz: number[];
   rms: number[];
   crossing: boolean[];
+  /** Points whose level came from the Vold–Kalman filter because guides cross there */
+  filtered: boolean[];
   /** The detected pattern predicts this family */
   explained: boolean | null;
   peakRms: number;
@@ -68,7 +73,7 @@ export interface InverterReport {
     /** The sidebands fitted two answers; the channel's quantity (expectedPattern) chose this one */
     settledByChannel: boolean;
   };
-  orders: { order: number; rpm: number[]; rms: number[]; crossing: boolean[] }[];
+  orders: { order: number; rpm: number[]; rms: number[]; crossing: boolean[]; filtered: boolean[] }[];
   families: FamilyTrackReport[];
   /** Families ranked by their peak level */
   strongestFamilies: { m: number; n: number; peakRms: number; peakRpm: number; explained: boolean | null }[];
@@ -111,23 +116,29 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   const trackOpts = { bandwidth: { hz: 0 }, enbwBins: input.enbwBins, mainLobeBins: MAIN_LOBE_HALF_BINS[input.window], others: all };
   const rpmStep = input.rpmStep ?? 50;
 
-  const orders = orderGuides.map((g, i) => {
-    const t = trackAgainstSpeed(trackGuide(power, layout, g, ctx, trackOpts), frameRpm, rpmStep);
-    return { order: input.orders![i], rpm: t.rpm.map((r) => round(r)), rms: t.rms.map((v) => round(v)), crossing: t.crossing };
+  // per-frame tracks of every guide; where guides cross and the samples are at hand, the coupled
+  // Vold–Kalman filter gives each its own level there (crossing-tracks.ts)
+  const frameTracks = all.map((g) => trackGuide(power, layout, g, ctx, trackOpts));
+  const served = input.samples ? resolveCrossings(input.samples, layout, ctx, all, frameTracks) : undefined;
+  const speedTrack = (i: number) => trackAgainstSpeed(frameTracks[i], frameRpm, rpmStep, served?.[i]);
+  const orders = orderGuides.map((_, i) => {
+    const t = speedTrack(i);
+    return { order: input.orders![i], rpm: t.rpm.map((r) => round(r)), rms: t.rms.map((v) => round(v)), crossing: t.crossing, filtered: t.filtered };
   });
-  const families: FamilyTrackReport[] = familyGuides.map((g, i) => {
-    const t = trackAgainstSpeed(trackGuide(power, layout, g, ctx, trackOpts), frameRpm, rpmStep);
+  const families: FamilyTrackReport[] = familyGuides.map((_, i) => {
+    const t = speedTrack(orderGuides.length + i);
     const { m, n } = familyList[i];
     // The peak of the track after a 5-point running median: a line of something else (an order that
     // is not a guide) crossing the band lasts a bin or two and must not make a family look strong.
     const smoothed = t.rms.map((_, j) => {
-      const w = t.rms.slice(Math.max(0, j - 2), j + 3).filter((v, k) => !t.crossing[Math.max(0, j - 2) + k] && Number.isFinite(v));
+      const usable = (idx: number) => !t.crossing[idx] || t.filtered[idx];
+      const w = t.rms.slice(Math.max(0, j - 2), j + 3).filter((v, k) => usable(Math.max(0, j - 2) + k) && Number.isFinite(v));
       return w.length ? w.sort((a, b) => a - b)[w.length >> 1] : NaN;
     });
     let peakRms = 0;
     let peakRpm = NaN;
     smoothed.forEach((v, j) => {
-      if (!t.crossing[j] && v > peakRms) {
+      if ((!t.crossing[j] || t.filtered[j]) && v > peakRms) {
         peakRms = v;
         peakRpm = t.rpm[j];
       }
@@ -139,6 +150,7 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
       hz: t.hz.map((h) => round(h)),
       rms: t.rms.map((v) => round(v)),
       crossing: t.crossing,
+      filtered: t.filtered,
       explained: pole.pattern ? allowedN(m, n, pole.pattern) : null,
       peakRms: round(peakRms),
       peakRpm: round(peakRpm),

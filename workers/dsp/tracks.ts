@@ -92,35 +92,39 @@ export interface SpeedTrack {
   hz: number[];
   rms: number[];
   crossing: boolean[];
+  /** Where a frame's level came from the Vold–Kalman filter (crossing-tracks.ts), when `served` was given */
+  filtered: boolean[];
 }
 
 /**
  * A per-frame track on an ascending rpm grid: the frames in each rpm bin are averaged in power
  * (RMS of the mean square), at the bin's mean rpm. Empty bins are left out.
  */
-export function trackAgainstSpeed(track: Track, frameRpm: Float64Array, rpmStep: number): SpeedTrack {
-  const bins = new Map<number, { rpm: number; hz: number; power: number; n: number; crossing: boolean }>();
+export function trackAgainstSpeed(track: Track, frameRpm: Float64Array, rpmStep: number, served?: Uint8Array): SpeedTrack {
+  const bins = new Map<number, { rpm: number; hz: number; power: number; n: number; crossing: boolean; filtered: boolean }>();
   for (let f = 0; f < track.rms.length; f++) {
     const r = frameRpm[f];
     const v = track.rms[f];
     if (!Number.isFinite(r) || !Number.isFinite(v)) continue;
     const key = Math.floor(r / rpmStep);
-    const b = bins.get(key) ?? { rpm: 0, hz: 0, power: 0, n: 0, crossing: false };
+    const b = bins.get(key) ?? { rpm: 0, hz: 0, power: 0, n: 0, crossing: false, filtered: false };
     b.rpm += r;
     b.hz += track.hz[f];
     b.power += v * v;
     b.n++;
     b.crossing ||= track.crossing[f] === 1;
+    b.filtered ||= served?.[f] === 1;
     bins.set(key, b);
   }
   const keys = [...bins.keys()].sort((a, b) => a - b);
-  const out: SpeedTrack = { rpm: [], hz: [], rms: [], crossing: [] };
+  const out: SpeedTrack = { rpm: [], hz: [], rms: [], crossing: [], filtered: [] };
   for (const k of keys) {
     const b = bins.get(k)!;
     out.rpm.push(b.rpm / b.n);
     out.hz.push(b.hz / b.n);
     out.rms.push(Math.sqrt(b.power / b.n));
     out.crossing.push(b.crossing);
+    out.filtered.push(b.filtered);
   }
   return out;
 }

@@ -60,11 +60,12 @@ export async function inverterCommand(file: string, o: Options): Promise<Omit<In
       tonalityAtS: o.has('at') ? o.number('at') : undefined,
       soundPressure: o.has('sound-pressure'),
       expectedPattern,
+      samples: x,
     });
     return {
       ...report,
-      orders: report.orders.map(({ order, rpm, rms, crossing }) => ({ order, rpm, rms, crossing })),
-      families: report.families.map(({ m, n, rpm, hz, rms, crossing, explained }) => ({ m, n, rpm, hz, rms, crossing, explained })),
+      orders: report.orders.map(({ order, rpm, rms, crossing, filtered }) => ({ order, rpm, rms, crossing, filtered })),
+      families: report.families.map(({ m, n, rpm, hz, rms, crossing, filtered, explained }) => ({ m, n, rpm, hz, rms, crossing, filtered, explained })),
     };
   } finally {
     await pool.close();

@@ -90,5 +90,5 @@ describe('analyze inverter', () => {
       code: 2,
       stderr: expect.stringContaining('--quantity must be one of acceleration, velocity, sound-pressure, voltage, other, not "torque"'),
     });
-  });
+  }, 30_000); // three runs of the whole command
 });

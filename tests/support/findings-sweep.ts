@@ -13,11 +13,8 @@
  * `node --import tsx tests/support/findings-sweep.ts` prints the hit rates (the README quotes them).
  */
 import { synthesiseDrive } from '../../seeds/synthetic-drive';
-import { createRealFft } from '../../workers/dsp/fft';
-import { analyseInverter, type InverterReport } from '../../workers/dsp/inverter-analysis';
 import { simulateTwoLevelPwm } from '../../workers/dsp/pwm-simulation';
-import { computeFrames, frameTimeS, stftLayout } from '../../workers/dsp/stft';
-import { makeWindow } from '../../workers/dsp/window';
+import { analyseSignal } from './analyse-signal';
 
 export type SweepKind = 'voltage sine-triangle' | 'voltage space-vector' | 'current sine-triangle' | 'force steady' | 'force step' | 'force spread';
 
@@ -150,13 +147,8 @@ const median = (xs: number[]) => {
 
 export async function runSweepCase(c: SweepCase): Promise<SweepOutcome> {
   const { x, rpm } = signalOf(c);
-  const layout = stftLayout(x.length, c.fsHz, { window: 'hann', blockSize: BLOCK, overlap: 0.75 });
-  const win = makeWindow('hann', BLOCK);
-  const power = new Float32Array(layout.frames * layout.bins);
-  computeFrames(x, 0, layout, win, await createRealFft(BLOCK), 0, layout.frames, power);
-  const frameRpm = Float64Array.from({ length: layout.frames }, (_, f) => rpm(frameTimeS(layout, f)));
   const expectedPattern = c.kind.startsWith('force') ? 'm+n even' : 'm+n odd';
-  const report: InverterReport = analyseInverter({ power, layout, window: 'hann', enbwBins: win.enbwBins, frameRpm, expectedPattern });
+  const { layout, report } = await analyseSignal(x, c.fsHz, rpm, { expectedPattern }, BLOCK);
 
   const tol = (hz: number) => Math.max(1.5 * layout.binHz, 0.01 * hz);
   const hz = report.carrier.hz;

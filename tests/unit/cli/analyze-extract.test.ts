@@ -15,6 +15,7 @@ import { PROJECT_ROOT } from '../../../server/config';
 import { decodeRecording } from '../../../workers/io/decode-recording';
 import { memorySource } from '../../../workers/io/byte-source';
 import { writeWav } from '../../../workers/io/wav-writer';
+import { snrDb, tone } from '../../support/tones';
 
 const run = promisify(execFile);
 const FS = 25600;
@@ -23,28 +24,6 @@ const N = FS * T;
 const rpm = (t: number) => 1000 + 750 * t; // 1000 → 4000 rpm
 const P = 4;
 const FC = 3000;
-
-/** A component of frequency f(t) and amplitude a(t), phase by the trapezoidal sum. */
-function tone(f: (t: number) => number, a: (t: number) => number, phase: number): Float32Array {
-  const out = new Float32Array(N);
-  let th = phase;
-  for (let i = 0; i < N; i++) {
-    const t = i / FS;
-    if (i > 0) th += (Math.PI * (f(t - 1 / FS) + f(t))) / FS;
-    out[i] = a(t) * Math.cos(th);
-  }
-  return out;
-}
-
-function snrDb(est: Float32Array, truth: Float32Array, from: number, to: number): number {
-  let s = 0;
-  let e = 0;
-  for (let i = from; i < to; i++) {
-    s += truth[i] ** 2;
-    e += (est[i] - truth[i]) ** 2;
-  }
-  return 10 * Math.log10(s / e);
-}
 
 async function analyze(...args: string[]) {
   try {
@@ -64,9 +43,9 @@ describe('npm run -s analyze -- extract', async () => {
   const dir = mkdtempSync(path.join(tmpdir(), 'fanlight-cli-extract-'));
   const file = path.join(dir, 'runup.wav');
   // order 48 (800 → 3200 Hz) crosses the family fc − fe (3000 − 4·rpm/60 Hz) near 3460 rpm
-  const order48 = tone((t) => (48 * rpm(t)) / 60, (t) => 0.3 + 0.05 * t, 0.4);
-  const family = tone((t) => FC - (P * rpm(t)) / 60, () => 0.25, -0.7);
-  const order8 = tone((t) => (8 * rpm(t)) / 60, () => 0.5, 1.2);
+  const order48 = tone(N, FS, (t) => (48 * rpm(t)) / 60, (t) => 0.3 + 0.05 * t, 0.4);
+  const family = tone(N, FS, (t) => FC - (P * rpm(t)) / 60, () => 0.25, -0.7);
+  const order8 = tone(N, FS, (t) => (8 * rpm(t)) / 60, () => 0.5, 1.2);
   const x = Float32Array.from(order48, (v, i) => v + family[i] + order8[i]);
   writeFileSync(file, writeWav([x, synthesiseTacho(FS, T, rpm, 60)], { sampleRateHz: FS, bits: 32, float: true }));
   const edge = FS / 2;

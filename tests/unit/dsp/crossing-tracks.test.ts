@@ -9,6 +9,7 @@ import { createRealFft } from '../../../workers/dsp/fft';
 import { analyseInverter } from '../../../workers/dsp/inverter-analysis';
 import { computeFrames, frameTimeS, stftLayout } from '../../../workers/dsp/stft';
 import { makeWindow } from '../../../workers/dsp/window';
+import { tone } from '../../support/tones';
 
 const FS = 25600;
 const T = 6;
@@ -18,25 +19,14 @@ const FC = 3000;
 const P = 4;
 const db = (x: number) => 20 * Math.log10(x);
 
-function tone(f: (t: number) => number, a: number, phase: number): Float32Array {
-  const out = new Float32Array(N);
-  let th = phase;
-  for (let i = 0; i < N; i++) {
-    const t = i / FS;
-    if (i > 0) th += (Math.PI * (f(t - 1 / FS) + f(t))) / FS;
-    out[i] = a * Math.cos(th);
-  }
-  return out;
-}
-
 describe('tracks at crossings (Vold–Kalman)', async () => {
   // order 48 meets fc − fe (3000 − 4·rpm/60 Hz) at about 3460 rpm
   const a48 = 0.3;
   const aFam = 0.12;
-  const order = tone((t) => (48 * rpm(t)) / 60, a48, 0.2);
-  const family = tone((t) => FC - (P * rpm(t)) / 60, aFam, 1.0);
+  const order = tone(N, FS, (t) => (48 * rpm(t)) / 60, () => a48, 0.2);
+  const family = tone(N, FS, (t) => FC - (P * rpm(t)) / 60, () => aFam, 1.0);
   // its partner fc + fe, so that the carrier is found from the symmetric pair (it crosses nothing here)
-  const partner = tone((t) => FC + (P * rpm(t)) / 60, aFam, -0.5);
+  const partner = tone(N, FS, (t) => FC + (P * rpm(t)) / 60, () => aFam, -0.5);
   const x = Float32Array.from(order, (v, i) => v + family[i] + partner[i]);
   const layout = stftLayout(N, FS, { window: 'hann', blockSize: 4096, overlap: 0.75 });
   const win = makeWindow('hann', 4096);

@@ -6,26 +6,12 @@
  */
 import { describe, expect, it } from 'vitest';
 import { synthesiseDrive, type FamilyComponent } from '../../../seeds/synthetic-drive';
-import { createRealFft } from '../../../workers/dsp/fft';
-import { analyseInverter } from '../../../workers/dsp/inverter-analysis';
-import { computeFrames, frameTimeS, stftLayout } from '../../../workers/dsp/stft';
-import { makeWindow } from '../../../workers/dsp/window';
+import { analyseSignal, type AnalysisExtras } from '../../support/analyse-signal';
 
 const FS = 51200;
 const db = (x: number) => 20 * Math.log10(x);
 
-async function analyse(
-  x: Float32Array,
-  rpm: (t: number) => number,
-  extra: { polePairs?: number; orders?: number[]; soundPressure?: boolean; tonalityAtS?: number; expectedPattern?: 'm+n odd' | 'm+n even' } = {},
-) {
-  const layout = stftLayout(x.length, FS, { window: 'hann', blockSize: 8192, overlap: 0.75 });
-  const win = makeWindow('hann', 8192);
-  const power = new Float32Array(layout.frames * layout.bins);
-  computeFrames(x, 0, layout, win, await createRealFft(8192), 0, layout.frames, power);
-  const frameRpm = Float64Array.from({ length: layout.frames }, (_, f) => rpm(frameTimeS(layout, f)));
-  return { layout, report: analyseInverter({ power, layout, window: 'hann', enbwBins: win.enbwBins, frameRpm, ...extra }) };
-}
+const analyse = (x: Float32Array, rpm: (t: number) => number, extra: AnalysisExtras = {}) => analyseSignal(x, FS, rpm, extra);
 
 /** Every uncrossed point of a track within tol dB of the expected RMS. */
 function expectTrack(t: { rms: number[]; crossing: boolean[] }, rms: number, tol = 0.5) {

@@ -8,6 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { phaseOf, voldKalman, voldKalmanWeight } from '../../../workers/dsp/vold-kalman';
+import { snrDb } from '../../support/tones';
 
 const FS = 25600;
 
@@ -18,17 +19,6 @@ function noise(n: number, rms: number, seed = 1): Float32Array {
   const out = new Float32Array(n);
   for (let i = 0; i < n; i++) out[i] = rms * Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u());
   return out;
-}
-
-/** SNR of an estimate against the truth over [from, to), dB. */
-function snrDb(est: Float32Array, truth: Float32Array, from = 0, to = truth.length): number {
-  let s = 0;
-  let e = 0;
-  for (let i = from; i < to; i++) {
-    s += truth[i] * truth[i];
-    e += (est[i] - truth[i]) ** 2;
-  }
-  return 10 * Math.log10(s / e);
 }
 
 function component(freq: Float64Array, amplitude: (i: number) => number, phaseRad: number): Float32Array {

@@ -38,8 +38,9 @@ export async function serve(config: AppConfig = loadConfig()): Promise<{ server:
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   // the same process rules as the launchers: only SIGINT/SIGTERM stop it; a bug is logged, not fatal
-  const { onShutdown } = await import('./ops/shutdown');
+  const { markServing, onShutdown } = await import('./ops/shutdown');
   const { url, stop } = await serve();
   console.log(`Fanlight API and app on ${url}`);
   onShutdown(stop);
+  markServing();
 }

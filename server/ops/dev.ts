@@ -8,7 +8,7 @@ import { serve } from '../index';
 import { printBanner } from './banner';
 import { prepareDatabase } from './database';
 import { prepareDemoRecordings } from './demo-files';
-import { onShutdown } from './shutdown';
+import { markServing, onShutdown } from './shutdown';
 
 process.env.PUBLIC_ORIGIN ??= 'http://127.0.0.1:5173'; // links in mail open the dev server
 process.env.ALLOWED_ORIGINS ??= 'http://localhost:5173'; // the dev server by its other name
@@ -26,4 +26,5 @@ process.env.API_PORT = String(config.port);
 const vite = await createServer({ configFile: new URL('../../vite.config.ts', import.meta.url).pathname });
 await vite.listen();
 onShutdown(() => vite.close());
+markServing();
 printBanner('http://127.0.0.1:5173', [`  (API on ${app.url})`, ...(mailLine ? [mailLine] : [])]);

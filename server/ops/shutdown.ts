@@ -1,14 +1,22 @@
 /**
- * Stops what a launcher started, last started first, on Ctrl-C (SIGINT) or SIGTERM, and on nothing else.
+ * Stops what a launcher started, last started first, on Ctrl-C (SIGINT) or SIGTERM.
  *
- * An unhandled rejection or an uncaught exception is a bug in one request's code, not a reason to take the
- * server (and the team's database with it) down: it is logged loudly with what is known, and the server
- * keeps answering. Each is counted so that tests and the log can tell.
+ * Once the app serves (markServing), an unhandled rejection or an uncaught exception is a bug in one
+ * request's code, not a reason to take the server (and the team's database with it) down: it is logged
+ * loudly with what is known, and the server keeps answering. Before that, while a launcher is still setting
+ * up (or in `npm test`, which never serves), the same error means the set-up failed: it stops what was
+ * started and exits 1, so a failed start can never look like success.
  */
 type Stopper = () => Promise<void> | void;
 const stoppers: Stopper[] = [];
 let stopping = false;
+let serving = false;
 let bugsLogged = 0;
+
+/** The app is up: from now on a stray error is logged, not fatal. */
+export function markServing(): void {
+  serving = true;
+}
 
 export function onShutdown(stop: Stopper): void {
   stoppers.unshift(stop);
@@ -64,5 +72,13 @@ for (const signal of ['SIGINT', 'SIGTERM'] as const) {
 }
 // A closed terminal must not leave the database half-stopped: say how to stop instead.
 process.on('SIGHUP', () => console.log('fanlight: SIGHUP ignored; stop with Ctrl-C or SIGTERM'));
-process.on('uncaughtException', (e) => logBug('uncaught exception', e));
-process.on('unhandledRejection', (e) => logBug('unhandled rejection', e));
+function onStrayError(kind: 'uncaught exception' | 'unhandled rejection', e: unknown): void {
+  if (serving) {
+    logBug(kind, e);
+    return;
+  }
+  console.error(`\nfanlight: set-up failed (${kind}):\n${describe(e)}\n`);
+  void shutdown(1);
+}
+process.on('uncaughtException', (e) => onStrayError('uncaught exception', e));
+process.on('unhandledRejection', (e) => onStrayError('unhandled rejection', e));

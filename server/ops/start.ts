@@ -9,7 +9,7 @@ import { buildClientIfStale } from './client-build';
 import { prepareDatabase } from './database';
 import { prepareDemoRecordings } from './demo-files';
 import { startMailFakeIfWanted } from './mail-fake';
-import { onShutdown } from './shutdown';
+import { markServing, onShutdown } from './shutdown';
 
 const config = loadConfig();
 console.log(`fanlight: starting MariaDB on 127.0.0.1:${config.db.port}`);
@@ -30,3 +30,4 @@ const mailLine = await startMailFakeIfWanted(config);
 const app = await serve(config);
 onShutdown(() => app.stop());
 printBanner(app.url, mailLine ? ['', mailLine] : []);
+markServing();

@@ -5,7 +5,19 @@ import { describe, expect, it } from 'vitest';
 const child = fileURLToPath(new URL('../../support/shutdown-child.ts', import.meta.url));
 
 describe('launcher process rules (server/ops/shutdown.ts)', () => {
-  it('logs an unhandled rejection and an uncaught exception, keeps running, and stops only on SIGTERM', async () => {
+  it('before it serves, a stray error is a failed set-up: it stops what it started and exits 1', async () => {
+    const proc = spawn(process.execPath, ['--import', 'tsx', child, 'setting-up'], { stdio: ['ignore', 'pipe', 'pipe'] });
+    let out = '';
+    let err = '';
+    proc.stdout.on('data', (d) => (out += d));
+    proc.stderr.on('data', (d) => (err += d));
+    const code = await new Promise<number | null>((resolve) => proc.on('exit', (c) => resolve(c)));
+    expect(code).toBe(1);
+    expect(err).toMatch(/set-up failed[\s\S]*the database did not start/);
+    expect(out).toContain('stopper ran');
+  }, 30_000);
+
+  it('once serving, logs an unhandled rejection and an uncaught exception, keeps running, and stops only on SIGTERM', async () => {
     const proc = spawn(process.execPath, ['--import', 'tsx', child], { stdio: ['ignore', 'pipe', 'pipe'] });
     let out = '';
     let err = '';

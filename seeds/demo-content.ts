@@ -10,7 +10,7 @@ import path from 'node:path';
 import type { Knex } from 'knex';
 import { openFileSource } from '../server/cli/node-file-source';
 import { RecordingRepository } from '../server/repositories/recording-repository';
-import { SNAPSHOT_CONTENT_TYPE } from '../server/schemas/views';
+import { SNAPSHOT_CONTENT_TYPE } from '../workers/io/snapshot-format';
 import { fingerprint } from '../workers/io/fingerprint';
 import { readRecordingHeader } from '../workers/io/decode-recording';
 import { demoRecordings, ensureDemoRecordings } from './demo-recordings';

@@ -12,8 +12,9 @@ import { computeFrames, frameTimeS, stftLayout } from '../workers/dsp/stft';
 import { makeWindow } from '../workers/dsp/window';
 import { decodeRecording } from '../workers/io/decode-recording';
 import { openFileSource } from '../server/cli/node-file-source';
-import { viewState, type SnapshotHeader, type ViewStateV1 } from '../server/schemas/views';
-import { encodeSnapshot, quantiseDb } from '../server/services/snapshot-codec';
+import { viewState, type ViewStateV1 } from '../server/schemas/views';
+import type { SnapshotHeader } from '../workers/io/snapshot-format';
+import { encodeSnapshot, quantiseDb } from '../workers/io/snapshot-codec';
 
 export const DEMO_VIEW_TITLE = 'CA-7 run-up: the carrier steps from 8 to 12 kHz at 6000 rpm';
 export const RUN_UP_FILE = 'ca7-run-up-30s.wav';

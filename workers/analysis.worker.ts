@@ -2,11 +2,12 @@
 /**
  * An analysis worker: computes one chunk of a map's frames and hands the powers back as a transferred
  * Float32Array; and, for the Bench, the speed from a tacho or speed channel, the map against speed
- * and the inverter findings. Only wiring here; the work is workers/dsp (shared with Node and tests).
+ * the inverter findings and the tracks of the guides. Only wiring here; the work is workers/dsp (shared with Node and tests).
  * The pool in src/lib/workers/analysis-pool.ts runs several of these for maps; the Bench's longer
  * single tasks run in their own (src/lib/workers/analysis-tasks.ts).
  */
 import * as Comlink from 'comlink';
+import { guideTracks, type GuideTrack, type GuideTracksRequest } from './dsp/guide-tracks';
 import { analyseInverter, type InverterAnalysisInput, type InverterReport } from './dsp/inverter-analysis';
 import { computeMapChunk, type MapChunkRequest, type MapChunkResult } from './dsp/map-chunk';
 import { speedFromChannel, speedFromTacho, type SpeedCurve } from './dsp/speed';
@@ -54,6 +55,10 @@ const api = {
   },
   inverter(req: InverterAnalysisInput): InverterReport {
     return analyseInverter(req);
+  },
+  tracks(req: GuideTracksRequest): GuideTrack[] {
+    const tracks = guideTracks(req);
+    return Comlink.transfer(tracks, tracks.flatMap((t) => [t.x.buffer, t.hz.buffer, t.db.buffer, t.crossing.buffer] as ArrayBuffer[]));
   },
 };
 

@@ -6,18 +6,8 @@ import { currentUser, requireSession } from '../middleware/require-session';
 import { fieldErrors, parseParams, validateBody } from '../middleware/validate';
 import type { StoredSnapshot } from '../repositories/view-repository';
 import { projectIdParams } from '../schemas/projects';
-import {
-  SNAPSHOT_CONTENT_TYPE,
-  SNAPSHOT_MAX_BYTES,
-  archiveViewBody,
-  createViewBody,
-  listViewsQuery,
-  saveViewBody,
-  saveViewChangesBody,
-  shareByMailBody,
-  updateViewBody,
-  viewIdParams,
-} from '../schemas/views';
+import { archiveViewBody, createViewBody, listViewsQuery, saveViewBody, saveViewChangesBody, shareByMailBody, updateViewBody, viewIdParams } from '../schemas/views';
+import { SNAPSHOT_CONTENT_TYPE, SNAPSHOT_MAX_BYTES } from '../../workers/io/snapshot-format';
 import { runAfterAnswer } from '../services/notification-service';
 import type { ViewSaveService } from '../services/view-save-service';
 import { ViewService } from '../services/view-service';

@@ -1,6 +1,8 @@
-// Imports zod and the pure channel vocabulary only: the client imports these schemas too.
+// Imports zod only: the client imports these schemas too.
 import { z } from 'zod';
-import { quantities } from '../../workers/io/channel-setup';
+
+/** What a channel measures, as the API takes it (the same words as workers/io/channel-setup.ts; a test holds them together). */
+export const channelQuantities = ['acceleration', 'velocity', 'sound-pressure', 'voltage', 'speed', 'tacho', 'other'] as const;
 
 const calibration = z.discriminatedUnion('kind', [
   z.object({
@@ -17,7 +19,7 @@ const calibration = z.discriminatedUnion('kind', [
 export const registeredChannel = z.object({
   index: z.number().int().min(0).max(63),
   name: z.string().trim().min(1).max(120),
-  quantity: z.enum(quantities),
+  quantity: z.enum(channelQuantities),
   unit: z.string().trim().max(40),
   calibration,
 });

@@ -267,50 +267,6 @@ export interface ViewDetail {
   snapshot: SnapshotInfo | null;
 }
 
-// ---------------------------------------------------------------- snapshot file
-
-/** The snapshot's own media type: see server/services/snapshot-codec.ts for the layout. */
-export const SNAPSHOT_CONTENT_TYPE = 'application/vnd.fanlight.snapshot';
-export const SNAPSHOT_MAGIC = 'FLS1';
-/** Upload cap of one snapshot file (before compression). */
-export const SNAPSHOT_MAX_BYTES = 4 * 1024 * 1024;
-export const SNAPSHOT_MAX_SIDE = 4096;
-
-const snapshotAxis = z.looseObject({
-  kind: z.enum(axisKinds),
-  from: finite,
-  to: finite,
-  unit: z.string().max(20),
-});
-
-const snapshotTrack = z.looseObject({
-  name: z.string().trim().min(1).max(120),
-  unit: z.string().max(20).default('dB'),
-  /** [x in the x-axis unit, level in dB or null for a gap]. */
-  points: z.array(z.tuple([finite, finite.nullable()])).max(SNAPSHOT_MAX_SIDE * 2),
-});
-
-const snapshotFinding = z.looseObject({
-  kind: z.string().trim().min(1).max(40),
-  summary: z.string().max(300),
-  at: z.looseObject({ x: finite, y: finite }).optional(),
-});
-
-/** The JSON header inside the snapshot file. */
-export const snapshotHeader = z.looseObject({
-  width: z.number().int().min(1).max(SNAPSHOT_MAX_SIDE),
-  height: z.number().int().min(1).max(SNAPSHOT_MAX_SIDE),
-  encoding: z.literal('u8-db', { error: "The only encoding is 'u8-db'." }),
-  /** The level of byte 255, dB. */
-  dbTop: finite,
-  /** The span from byte 0 to byte 255, dB. */
-  dbRange: z.number().positive({ error: 'dbRange is above 0.' }).max(300),
-  axes: z.object({ x: snapshotAxis, y: snapshotAxis }),
-  tracks: z.array(snapshotTrack).max(64).optional(),
-  findings: z.array(snapshotFinding).max(200).optional(),
-});
-export type SnapshotHeader = z.infer<typeof snapshotHeader>;
-
 // ---------------------------------------------------------------- marks and comments
 
 export const MARK_TEXT_MAX = 2000;

@@ -2,8 +2,8 @@
 import { promisify } from 'node:util';
 import { gzip as gzipCb } from 'node:zlib';
 import { UnsupportedMediaTypeError, ValidationError } from '../errors';
-import { SNAPSHOT_CONTENT_TYPE } from '../schemas/views';
-import { decodeSnapshot } from './snapshot-codec';
+import { SNAPSHOT_CONTENT_TYPE } from '../../workers/io/snapshot-format';
+import { decodeSnapshot } from '../../workers/io/snapshot-codec';
 
 const gzip = promisify(gzipCb);
 

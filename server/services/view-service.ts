@@ -6,18 +6,8 @@ import { ActivityRepository } from '../repositories/activity-repository';
 import { MemberRepository, ProjectRepository } from '../repositories/project-repository';
 import { SnapshotRepository, type StoredSnapshot } from '../repositories/view-repository';
 import type { PublicUser } from '../schemas/auth';
-import {
-  SNAPSHOT_CONTENT_TYPE,
-  upgradeViewState,
-  viewState,
-  type CreateViewBody,
-  type ListViewsQuery,
-  type SnapshotInfo,
-  type UpdateViewBody,
-  type ViewDetail,
-  type ViewList,
-  type ViewState,
-} from '../schemas/views';
+import { upgradeViewState, viewState, type CreateViewBody, type ListViewsQuery, type SnapshotInfo, type UpdateViewBody, type ViewDetail, type ViewList, type ViewState } from '../schemas/views';
+import { SNAPSHOT_CONTENT_TYPE } from '../../workers/io/snapshot-format';
 import { NOTHING_TO_FOLLOW, type FollowUp, type NotificationService } from './notification-service';
 import { checkSnapshot, type UploadedSnapshot } from './snapshot-upload';
 import { ViewAccess } from './view-access';

@@ -1,8 +1,8 @@
 /** Views, marks, snapshots and share links for API tests, made straight in the test database where a test needs a target. */
 import { gzipSync } from 'node:zlib';
 import type { Knex } from 'knex';
-import { SNAPSHOT_CONTENT_TYPE, type SnapshotHeader } from '../../server/schemas/views';
-import { encodeSnapshot } from '../../server/services/snapshot-codec';
+import { SNAPSHOT_CONTENT_TYPE, type SnapshotHeader } from '../../workers/io/snapshot-format';
+import { encodeSnapshot } from '../../workers/io/snapshot-codec';
 import { hashToken, newToken } from '../../server/services/tokens';
 
 /** A whole view state of version 1, as the Bench would save it. */

@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { gunzipSync } from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { SNAPSHOT_MAX_BYTES } from '../../server/schemas/views';
+import { SNAPSHOT_MAX_BYTES } from '../../workers/io/snapshot-format';
 import { makeProject, makeUser, sessionFor, type Session } from '../support/actors';
 import { startTestApp } from '../support/test-app';
 import { SNAPSHOT_TYPE, binaryParser, insertView, sampleState, snapshotBytes } from './view-fixtures';

@@ -7,8 +7,8 @@
  */
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { SNAPSHOT_CONTENT_TYPE, type SnapshotHeader } from '../../server/schemas/views';
-import { encodeSnapshot, quantiseDb } from '../../server/services/snapshot-codec';
+import { SNAPSHOT_CONTENT_TYPE, type SnapshotHeader } from '../../workers/io/snapshot-format';
+import { encodeSnapshot, quantiseDb } from '../../workers/io/snapshot-codec';
 import { demoProject } from '../../seeds/demo-scenario';
 import { startAppServer } from './app-server';
 import { canvasPixels, launchBrowser, screenshot, signIn } from './browser';
@@ -97,7 +97,7 @@ const viewState = {
 };
 
 /** A JSON request from the signed-in page, with the session's CSRF token. */
-function api(page: Page, method: string, path: string, body?: unknown): Promise<{ status: number; body: any }> {
+function api<T = unknown>(page: Page, method: string, path: string, body?: unknown): Promise<{ status: number; body: T }> {
   return page.evaluate(
     async ({ method, path, body }) => {
       const token = ((await (await fetch('/api/auth/csrf')).json()) as { token: string }).token;
@@ -128,19 +128,23 @@ function uploadSnapshot(page: Page, viewId: number, bytes: Uint8Array): Promise<
 
 /** Saves a view with the snapshot and one point mark, as the engineer on `page`. */
 async function seedView(page: Page, title: string) {
-  const projects = await api(page, 'GET', '/projects');
-  const projectId = (projects.body.projects as { id: number; name: string }[]).find((p) => p.name === demoProject.name)!.id;
-  const view = await api(page, 'POST', `/projects/${projectId}/views`, { title, recordingId: null, state: viewState });
+  const projects = await api<{ projects: { id: number; name: string }[] }>(page, 'GET', '/projects');
+  const projectId = projects.body.projects.find((p) => p.name === demoProject.name)!.id;
+  const view = await api<{ view: { id: number } }>(page, 'POST', `/projects/${projectId}/views`, {
+    title,
+    recordingId: null,
+    state: viewState,
+  });
   expect(view.status).toBe(201);
-  const viewId = view.body.view.id as number;
+  const viewId = view.body.view.id;
   expect(await uploadSnapshot(page, viewId, runUpSnapshot())).toBe(200);
-  const mark = await api(page, 'POST', `/views/${viewId}/marks`, {
+  const mark = await api<{ mark: { id: number } }>(page, 'POST', `/views/${viewId}/marks`, {
     kind: 'point',
     geometry: { x: SHIFT_RPM, y: 10000 },
     text: 'The carrier steps from 8 to 10 kHz here',
   });
   expect(mark.status).toBe(201);
-  return { projectId, viewId, markId: mark.body.mark.id as number };
+  return { projectId, viewId, markId: mark.body.mark.id };
 }
 
 

@@ -17,12 +17,22 @@ export interface ToneFinding {
   tnrDb: number;
   prDb: number;
   prominent: boolean;
+  /** The limits the tone is judged against (ECMA-418-1 eq. 12 and 16) */
+  tnrLimitDb: number;
+  prLimitDb: number;
   /** dB re 20 µPa, for sound pressure only */
   levelDb: number | null;
   /** Level minus the ISO 389-7 threshold, dB (positive: audible), for sound pressure only */
   aboveThresholdDb: number | null;
 }
 
+/** The families whose lines are candidate carrier tones unless others are asked for: m 1–2, n −5…5. */
+export const TONE_FAMILIES: readonly { m: number; n: number }[] = [1, 2].flatMap((m) => Array.from({ length: 11 }, (_, i) => ({ m, n: i - 5 })));
+
+/**
+ * The strongest carrier tones (count of them) on the spectrum averaged over the frames within ±0.5 s
+ * of atS, with their tonality. The CLI (analyse inverter) and the Bench's findings call this.
+ */
 export function carrierTonality(
   power: Float32Array,
   layout: StftLayout,
@@ -68,6 +78,8 @@ export function carrierTonality(
       tnrDb,
       prDb: pr.deltaLpDb,
       prominent: tnrDb >= tnrLimitDb(c.hz) || pr.prominent,
+      tnrLimitDb: tnrLimitDb(c.hz),
+      prLimitDb: pr.limitDb,
       levelDb,
       aboveThresholdDb: levelDb === null ? null : levelDb - hearingThresholdDb(c.hz),
     });

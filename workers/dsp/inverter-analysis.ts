@@ -4,7 +4,7 @@
  * speed, and the strongest families. Shared by the Bench's workers and the batch CLI.
  */
 import { carrierShifts, detectCarrier, runSpreadHz } from './carrier';
-import { carrierTonality, type ToneFinding } from './carrier-tonality';
+import { carrierTonality, TONE_FAMILIES, type ToneFinding } from './carrier-tonality';
 import { allowedN, inferPolePairs, observeSidebandOffsets, type FamilyPattern } from './pole-pairs';
 import { frameTimeS, type StftLayout } from './stft';
 import { resolveCrossings } from './crossing-tracks';
@@ -108,8 +108,7 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   const spread = runSpreadHz(power, layout.bins, layout.binHz, carrier.hz, withCarrier, frHz);
 
   const ctx = { rpm: frameRpm, carrierHz: carrier.hz, polePairs: pole.value ?? NaN };
-  const familyList =
-    input.families ?? [1, 2].flatMap((m) => Array.from({ length: 11 }, (_, i) => ({ m, n: i - 5 })));
+  const familyList = input.families ?? [...TONE_FAMILIES];
   const orderGuides: Guide[] = (input.orders ?? []).map((order) => ({ kind: 'order', order }));
   const familyGuides: Guide[] = familyList.map((f) => ({ kind: 'family', m: f.m, n: f.n, per: 'electrical' }));
   const all = [...orderGuides, ...familyGuides];
@@ -177,6 +176,8 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
         hz: round(t.hz),
         tnrDb: round(t.tnrDb, 4),
         prDb: round(t.prDb, 4),
+        tnrLimitDb: round(t.tnrLimitDb, 4),
+        prLimitDb: round(t.prLimitDb, 4),
         levelDb: t.levelDb === null ? null : round(t.levelDb, 4),
         aboveThresholdDb: t.aboveThresholdDb === null ? null : round(t.aboveThresholdDb, 4),
       })),

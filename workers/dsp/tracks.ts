@@ -5,16 +5,14 @@
  * This is the spectral ("FFT-based") order tracking of Brandt [2]. Where another guide falls inside the
  * band the point is flagged rather than reported as one component.
  *
- * Guides: order k → f = k·fr; carrier family (m, n) → f = m·fc(t) + n·fe with fe = p·fr (n in electrical
- * orders), or (m, k) → f = m·fc(t) + k·fr (k in shaft orders).
+ * The guides' frequencies come from guide-formula.ts.
  * References: [1] F. J. Harris, Proc. IEEE 66(1) (1978) 51–83. [2] A. Brandt, Noise and Vibration
  *   Analysis, Wiley 2011, ch. 12 (order tracking) [from memory].
  */
+import { guideFrequencyHz, type Guide } from './guide-formula';
 import type { StftLayout } from './stft';
 
-export type Guide =
-  | { kind: 'order'; order: number }
-  | { kind: 'family'; m: number; n: number; per: 'electrical' | 'shaft' };
+export type { Guide };
 
 export interface GuideContext {
   /** Shaft speed per frame, rpm */
@@ -24,12 +22,9 @@ export interface GuideContext {
   polePairs?: number;
 }
 
+/** A guide's frequency at one frame of a run. */
 export function guideHz(g: Guide, ctx: GuideContext, frame: number): number {
-  const fr = ctx.rpm[frame] / 60;
-  if (g.kind === 'order') return g.order * fr;
-  const fc = ctx.carrierHz?.[frame] ?? NaN;
-  const step = g.per === 'electrical' ? (ctx.polePairs ?? NaN) * fr : fr;
-  return g.m * fc + g.n * step;
+  return guideFrequencyHz(g, { rpm: ctx.rpm[frame], carrierHz: ctx.carrierHz?.[frame] ?? NaN, polePairs: ctx.polePairs ?? NaN });
 }
 
 export interface TrackOptions {

@@ -4,7 +4,7 @@
  */
 import { createStore, del, get, promisifyRequest, set, values, type UseStore } from 'idb-keyval';
 import type { ChannelSetup } from '../../../workers/io/channel-setup';
-import type { SpeedSource } from '../bench/hooks/use-speed-curve';
+import type { SpeedSource } from '../../../workers/io/speed-source';
 import type { ChannelInfo, CsvOptions, RecordingFormat } from '../../../workers/io/recording';
 import { formatMegabytes } from '../../lib/format';
 

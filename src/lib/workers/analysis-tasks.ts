@@ -1,13 +1,13 @@
 /**
- * The Bench's single, longer analysis tasks (speed, the map against speed, the inverter findings), each
- * in its own lane: a worker of its own, so a long task never holds up the map's chunks, and a newer
- * task on the same lane ends the older one (its worker is stopped). Where no worker can start (blocked,
+ * The Bench's single, longer analysis tasks (speed, the map against speed, the inverter findings, the
+ * tracks), each in its own lane: a worker of its own, so a long task never holds up the map's chunks,
+ * and a newer task on the same lane ends the older one (its worker is stopped). Where no worker can start (blocked,
  * or none in this browser) the task runs on this thread after a yield, from a fresh copy of its input.
  */
 import * as Comlink from 'comlink';
 import type { AnalysisWorkerApi } from '../../../workers/analysis.worker';
 
-export type TaskLane = 'speed' | 'speed-map' | 'findings';
+export type TaskLane = 'speed' | 'speed-map' | 'findings' | 'tracks';
 
 export interface TaskJob<T> {
   promise: Promise<T>;
@@ -132,3 +132,13 @@ export function runTask<T>(name: TaskLane, viaWorker: (remote: Comlink.Remote<An
 }
 
 export const isAbort = (e: unknown) => e instanceof Error && e.name === 'AbortError';
+
+/**
+ * The map's mean squares as a task sends them: shared memory goes as it is (every thread reads the one
+ * copy); otherwise a copy, transferred, since a transfer empties what it sends.
+ */
+export function powerForTask(power: Float32Array): { power: Float32Array; transfer: ArrayBuffer[] } {
+  if (typeof SharedArrayBuffer !== 'undefined' && power.buffer instanceof SharedArrayBuffer) return { power, transfer: [] };
+  const copy = power.slice();
+  return { power: copy, transfer: [copy.buffer as ArrayBuffer] };
+}

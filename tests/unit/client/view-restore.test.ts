@@ -5,11 +5,11 @@
  * applies); the schema they pass through is the one the API enforces.
  */
 import { describe, expect, it } from 'vitest';
-import { snapshotHeader, viewState, type Mark } from '../../../server/schemas/views';
-import type { TrackSeries } from '../../../src/features/bench/analysis/spectra';
+import { viewState, type Mark } from '../../../server/schemas/views';
+import { snapshotHeader } from '../../../workers/io/snapshot-format';
 import { familyLineId, guidesReducer, initialGuides, orderLineId, resolveLines, type GuidesState } from '../../../src/features/bench/map/guides';
-import { benchRestoreOf, markOnMap } from '../../../src/features/bench/views/view-restore';
-import { benchViewState, markBody, snapshotTracks, type BenchMark, type BenchViewInputs } from '../../../src/features/bench/views/view-snapshot';
+import { benchRestoreOf, markOnMap } from '../../../src/features/bench/view-state/view-restore';
+import { benchViewState, markBody, snapshotTracks, type BenchMark, type BenchViewInputs, type TrackForSnapshot } from '../../../src/features/bench/view-state/view-snapshot';
 
 const FRAMES = 40;
 
@@ -176,16 +176,14 @@ describe('a saved view back on the Bench', () => {
 
 describe('tracks in the snapshot', () => {
   const line = resolveLines(guidesReducer(initialGuides, { type: 'add-order', order: 8 }), { frames: 1, frameRpm: null, polePairs: null, detectedHz: null })[0];
-  const series = (n: number, peakAt: number): TrackSeries => ({
-    line,
+  const series = (n: number, peakAt: number, name = line.label): TrackForSnapshot => ({
+    name,
     x: Array.from({ length: n }, (_, i) => i * 0.01),
-    hz: Array.from({ length: n }, () => 100),
     db: Array.from({ length: n }, (_, i) => (i === peakAt ? 95 : i % 50 === 7 ? Number.NaN : 60)),
-    crossing: Array.from({ length: n }, () => false),
   });
 
   it('keeps the visible range only, at most the point limit, and a one-frame peak', () => {
-    const [t] = snapshotTracks([series(10000, 4321)], new Map([[line.id, 'order 8']]), 'dB re 1 µm/s²', [10, 80], 500);
+    const [t] = snapshotTracks([series(10000, 4321, 'order 8')], 'dB re 1 µm/s²', [10, 80], 500);
     expect(t.name).toBe('order 8');
     expect(t.points).toHaveLength(500);
     expect(Math.min(...t.points.map((p) => p[0]))).toBeGreaterThanOrEqual(10);
@@ -194,7 +192,7 @@ describe('tracks in the snapshot', () => {
   });
 
   it('turns levels outside the spectrum into gaps, and the header passes the server schema', () => {
-    const [t] = snapshotTracks([series(100, -1)], new Map(), 'dB(A) re 20 µPa', [0, 1]);
+    const [t] = snapshotTracks([series(100, -1)], 'dB(A) re 20 µPa', [0, 1]);
     expect(t.name).toBe(line.label);
     expect(t.points).toHaveLength(100);
     expect(t.points.filter((p) => p[1] === null).length).toBe(2); // i = 7 and 57

@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useState } from 'react';
 import type { GuideRef } from '../../../../server/schemas/views';
 import { Link } from 'react-router-dom';
 import { MARK_TEXT_MAX, type Mark } from '../../../../server/schemas/views';
@@ -7,12 +7,12 @@ import { linkClass } from '../../../components/ui/styles';
 import { paths } from '../../../config/paths';
 import { useMe } from '../../auth/api/auth';
 import { useProject } from '../../projects/api/projects';
-import { useMarks } from '../../views/api/marks';
 import { EditableMarkBody } from '../../views/components/mark-editor';
 import { MarkByline, MarkText } from '../../views/components/mark-card';
-import { markOnMap, type ViewOnBench } from '../views/view-restore';
+import { markOnMap, type ViewOnBench } from '../view-state/view-restore';
+import type { SavedMarksOnMap } from '../session/use-saved-marks';
 import type { GuideLine } from '../map/guides';
-import type { BenchMark } from '../views/view-snapshot';
+import type { BenchMark } from '../view-state/view-snapshot';
 import { smallInputClass, smallSelectClass } from './bench-panel';
 
 const placeText = (m: BenchMark, against: 'time' | 'speed') => {
@@ -23,33 +23,6 @@ const placeText = (m: BenchMark, against: 'time' | 'speed') => {
     ? `${m.x.toFixed(digits)} ${unit}, ${Math.round(m.f)} Hz`
     : `${m.x0.toFixed(digits)}–${m.x1.toFixed(digits)} ${unit}, ${Math.round(m.f0)}–${Math.round(m.f1)} Hz`;
 };
-
-export interface SavedMarksOnMap {
-  /** The view's marks in the server's order, numbered as on the view page */
-  marks: Mark[];
-  /** Those the map can draw now: point and box marks, while the map is against the axis they were placed on */
-  onMap: BenchMark[];
-  isPending: boolean;
-  error: Error | null;
-}
-
-/** The marks of the view the Bench was opened from, and where they sit on the map. */
-export function useSavedMarksOnMap(fromView: ViewOnBench | undefined, against: 'time' | 'speed'): SavedMarksOnMap {
-  const query = useMarks(fromView?.view.id ?? 0, fromView !== undefined);
-  const marks = fromView ? query.data : undefined;
-  const savedAgainst = fromView?.restore.against;
-  const savedSwapped = fromView?.restore.swapped ?? false;
-  const onMap = useMemo(() => {
-    if (!marks || against !== savedAgainst) return [];
-    const out: BenchMark[] = [];
-    marks.forEach((m, i) => {
-      const placed = markOnMap(m, savedSwapped);
-      if (placed) out.push({ ...placed, number: i + 1 });
-    });
-    return out;
-  }, [marks, against, savedAgainst, savedSwapped]);
-  return { marks: marks ?? [], onMap, isPending: fromView !== undefined && query.isPending, error: query.error };
-}
 
 /**
  * The saved view's marks on the Bench: each one's text, editable there by its author or a lead (the

@@ -1,14 +1,13 @@
-import { memo, useId, useState, type Dispatch, type FormEvent } from 'react';
+import { useId, useState, type Dispatch, type FormEvent } from 'react';
+import { carrierSummary } from '../analysis/findings-text';
+import { useBench, useBenchActions } from '../session/bench-session';
+import { familyDetail, familyLabel, orderLabel } from '../../../../workers/dsp/guide-formula';
 import {
-  familyDetail,
-  familyLabel,
   familyLineId,
-  orderLabel,
   orderLineId,
   type CarrierGuideSpec,
   type Family,
   type GuidesAction,
-  type GuidesState,
 } from '../map/guides';
 import { BenchPanel, smallInputClass, smallSelectClass, toolButtonClass } from './bench-panel';
 import { GUIDE_COLOURS } from './map-view';
@@ -78,20 +77,24 @@ function parseFamilies(mText: string, nText: string): Family[] | null {
   return both && n !== 0 ? [{ m, n: -Math.abs(n) }, { m, n: Math.abs(n) }] : [{ m, n }];
 }
 
-export interface GuidesPanelProps {
-  guides: GuidesState;
-  dispatch: Dispatch<GuidesAction>;
-  detectedSummary: string | null;
-  canDetect: boolean;
-  onAddDetected: () => void;
-  onAddTyped: (hz: number) => void;
-  picking: boolean;
-  onPick: (on: boolean) => void;
-  speedAvailable: boolean;
-  polePairs: number | null;
-}
-
-export const GuidesPanel = memo(function GuidesPanel(p: GuidesPanelProps) {
+/** The order and carrier guides: add, tick (tracked), hide, remove; carriers typed, picked or detected. */
+export function GuidesPanel() {
+  const a = useBenchActions();
+  const report = useBench((s) => s.report);
+  const detectedHz = useBench((s) => s.detectedHz);
+  const mode = useBench((s) => s.mode);
+  const p = {
+    guides: useBench((s) => s.guides),
+    dispatch: a.dispatchGuides,
+    detectedSummary: report && detectedHz ? carrierSummary(report) : null,
+    canDetect: detectedHz !== null,
+    onAddDetected: a.addDetectedCarrier,
+    onAddTyped: (hz: number) => a.addCarrierAt(hz, 'typed'),
+    picking: mode === 'pick',
+    onPick: (on: boolean) => a.setMode(on ? 'pick' : 'pan'),
+    speedAvailable: useBench((s) => s.frameRpm !== null),
+    polePairs: useBench((s) => s.polePairs),
+  };
   const { guides, dispatch } = p;
   const [orderText, setOrderText] = useState('');
   const [centreText, setCentreText] = useState('');
@@ -186,7 +189,7 @@ export const GuidesPanel = memo(function GuidesPanel(p: GuidesPanelProps) {
       </div>
     </BenchPanel>
   );
-});
+}
 
 function CarrierCard({
   c,

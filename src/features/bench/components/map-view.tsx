@@ -4,13 +4,9 @@ import { linePoints, type GuideLine } from '../map/guides';
 import { MapImage } from '../map/map-image';
 import type { MapRaster } from '../map/map-raster';
 import { boxed, dragged, fullView, geometry, zoomAbout, type Extents, type Viewport } from '../map/viewport';
-import type { BenchPointer, BenchStores } from '../state/bench-stores';
-import type { BenchMark } from '../views/view-snapshot';
-
-/** A mark placed on the map, in the map's terms (x = time or speed, f = frequency). */
-export type MarkPlace = { kind: 'point'; x: number; f: number } | { kind: 'box'; x0: number; x1: number; f0: number; f1: number };
-
-export type MapMode = 'pan' | 'box' | 'pick' | 'mark';
+import type { BenchPointer, BenchStores } from '../session/live-stores';
+import type { MapMode, MarkPlace } from '../session/use-view-model';
+import type { BenchMark } from '../view-state/view-snapshot';
 
 export const GUIDE_COLOURS = {
   selected: '#f0a93e',

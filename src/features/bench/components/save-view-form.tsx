@@ -3,16 +3,9 @@ import { useState, type FormEvent } from 'react';
 import { Link } from 'react-router-dom';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import { registerRecordingBody } from '../../../../server/schemas/recordings';
-import {
-  createViewBody,
-  saveViewBody,
-  saveViewChangesBody,
-  SNAPSHOT_CONTENT_TYPE,
-  snapshotHeader,
-  type SnapshotHeader,
-  type ViewDetail,
-} from '../../../../server/schemas/views';
-import { encodeSnapshot } from '../../../../server/services/snapshot-codec';
+import { createViewBody, saveViewBody, saveViewChangesBody, type ViewDetail } from '../../../../server/schemas/views';
+import { SNAPSHOT_CONTENT_TYPE, snapshotHeader, type SnapshotHeader } from '../../../../workers/io/snapshot-format';
+import { encodeSnapshot } from '../../../../workers/io/snapshot-codec';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { SelectField } from '../../../components/ui/select-field';
@@ -25,8 +18,8 @@ import { useProjects } from '../../projects/api/projects';
 import { projectRecordingsQuery, useRegisterRecording } from '../../projects/api/recordings';
 import { viewKeys } from '../../views/api/keys';
 import type { LibraryEntry } from '../../library/library-store';
-import type { ViewOnBench } from '../views/view-restore';
-import { markBody, type BenchMark } from '../views/view-snapshot';
+import type { ViewOnBench } from '../view-state/view-restore';
+import { markBody, type BenchMark } from '../view-state/view-snapshot';
 import { setupProblems } from './register-form';
 
 /** What the workbench hands over when the view is saved: taken at that moment from what is on screen. */

@@ -1,6 +1,7 @@
 import { useEffect, useId, useState, type ReactNode } from 'react';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
-import { DEFAULT_PPR, type SpeedSource, type SpeedState } from '../hooks/use-speed-curve';
+import { DEFAULT_PPR, type SpeedSource } from '../../../../workers/io/speed-source';
+import type { SpeedState } from '../session/use-speed-curve';
 import { smallInputClass, smallSelectClass } from './bench-panel';
 
 export type PoleChoice = { mode: 'inferred' } | { mode: 'typed'; value: number };

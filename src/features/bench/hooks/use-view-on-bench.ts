@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useMemo } from 'react';
 import { projectRecordingsQuery } from '../../projects/api/recordings';
 import { viewQuery } from '../../views/api/views';
-import { benchRestoreOf, type ViewOnBench } from '../views/view-restore';
+import { benchRestoreOf, type ViewOnBench } from '../view-state/view-restore';
 
 export type ViewOnBenchState =
   | { kind: 'none' }

@@ -2,11 +2,12 @@
  * Guides drawn over the map, as the engineer sets them up, and the lines they resolve to. Order
  * guides pass through 0 Hz, f = k·fr; a carrier guide is a centre fc (typed, picked, or the detected
  * carrier, which follows its shifts) with families m·fc + n·fe (n in electrical orders, fe = p·fr) or
- * m·fc + k·fr (k in shaft orders). The frequencies come from workers/dsp/tracks.ts guideHz. No DOM.
+ * m·fc + k·fr (k in shaft orders). The frequencies and names come from workers/dsp/guide-formula.ts. No DOM.
  */
+import { familyDetail, familyLabel, orderDetail, orderLabel, type FamilyPer } from '../../../../workers/dsp/guide-formula';
 import { guideHz, type Guide, type GuideContext } from '../../../../workers/dsp/tracks';
 
-export type FamilyPer = 'electrical' | 'shaft';
+export type { FamilyPer };
 
 export interface OrderGuideSpec {
   id: string;
@@ -132,22 +133,6 @@ export function defaultFamilies(pattern: 'm+n odd' | 'm+n even' | null): Family[
   return [{ m: 1, n: 0 }, { m: 1, n: -1 }, { m: 1, n: 1 }, { m: 1, n: -3 }, { m: 1, n: 3 }, { m: 2, n: 0 }, { m: 2, n: -2 }, { m: 2, n: 2 }];
 }
 
-const minus = '\u2212';
-const num = (v: number) => (Number.isInteger(v) ? String(v) : String(Number(v.toPrecision(4))));
-
-export const orderLabel = (k: number) => `${num(k)}·fr`;
-
-export function familyLabel(m: number, n: number, per: FamilyPer): string {
-  const c = m === 1 ? 'fc' : `${m}fc`;
-  if (n === 0) return c;
-  const a = Math.abs(n);
-  return `${c}${n > 0 ? '+' : minus}${a === 1 ? '' : a}${per === 'electrical' ? 'fe' : 'fr'}`;
-}
-
-const signed = (n: number) => (n > 0 ? `+${n}` : n < 0 ? `${minus}${-n}` : '0');
-
-export const familyDetail = (m: number, n: number, per: FamilyPer) => `m ${m}, ${per === 'electrical' ? 'n' : 'k'} ${signed(n)}`;
-
 export interface GuideLine {
   id: string;
   kind: 'order' | 'family';
@@ -187,14 +172,12 @@ export function resolveLines(s: GuidesState, env: GuideEnvironment): GuideLine[]
   for (const o of s.orders) {
     if (o.hidden) continue;
     const id = orderLineId(o);
-    lines.push({ id, kind: 'order', label: orderLabel(o.order), detail: `k ${num(o.order)}`, guide: { kind: 'order', order: o.order }, ctx: orderCtx, selected: s.selected.includes(id) });
+    lines.push({ id, kind: 'order', label: orderLabel(o.order), detail: orderDetail(o.order), guide: { kind: 'order', order: o.order }, ctx: orderCtx, selected: s.selected.includes(id) });
   }
   for (const c of s.carriers) {
     if (c.hidden) continue;
     const carrierHz = c.source === 'detected' ? (env.detectedHz ?? new Float64Array(env.frames).fill(NaN)) : new Float64Array(env.frames).fill(c.centreHz);
     const ctx: GuideContext = { rpm, carrierHz, polePairs: env.polePairs ?? NaN };
-    // m·fc needs neither the speed nor the pole pairs (guideHz would make 0 × NaN of them)
-    const centred: GuideContext = { rpm: env.frameRpm ?? new Float64Array(env.frames), carrierHz, polePairs: env.polePairs ?? 0 };
     for (const f of c.families) {
       const id = familyLineId(c, f);
       lines.push({
@@ -203,7 +186,7 @@ export function resolveLines(s: GuidesState, env: GuideEnvironment): GuideLine[]
         label: familyLabel(f.m, f.n, c.per),
         detail: familyDetail(f.m, f.n, c.per),
         guide: { kind: 'family', m: f.m, n: f.n, per: c.per },
-        ctx: f.n === 0 ? centred : ctx,
+        ctx,
         selected: s.selected.includes(id),
         carrierId: c.id,
         carrierName: c.source === 'detected' ? 'detected' : `${c.centreHz} Hz`,

@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
-import type { SpeedSource } from '../../bench/hooks/use-speed-curve';
+import type { SpeedSource } from '../../../../workers/io/speed-source';
 import {
   addToLibrary,
   listLibrary,

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SnapshotHeader } from '../../../../server/schemas/views';
-import { decodeSnapshot } from '../../../../server/services/snapshot-codec';
+import type { SnapshotHeader } from '../../../../workers/io/snapshot-format';
+import { decodeSnapshot } from '../../../../workers/io/snapshot-codec';
 import { api, ApiError } from '../../../lib/api-client';
 import { viewKeys } from './keys';
 

@@ -1,4 +1,4 @@
-import type { SnapshotHeader } from '../../../../server/schemas/views';
+import type { SnapshotHeader } from '../../../../workers/io/snapshot-format';
 import { formatAxisValue, type AxisSpec } from '../snapshot/axes';
 
 const kindText = (kind: string) => {

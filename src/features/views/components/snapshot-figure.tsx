@@ -1,6 +1,6 @@
 import { useEffect, useMemo, useRef, useState, type KeyboardEvent, type PointerEvent as ReactPointerEvent, type RefObject } from 'react';
 import type { GuideRef, Mark, ViewState } from '../../../../server/schemas/views';
-import { levelOfByte } from '../../../../server/services/snapshot-codec';
+import { levelOfByte } from '../../../../workers/io/snapshot-codec';
 import { colourLut, lutCss, type ColourScaleName } from '../../bench/map/colour-scales';
 import { ticks } from '../../bench/map/axis-ticks';
 import { BottomAxis, LeftAxis } from '../../bench/components/map-axes';

@@ -1,4 +1,4 @@
-import type { SnapshotHeader } from '../../../../server/schemas/views';
+import type { SnapshotHeader } from '../../../../workers/io/snapshot-format';
 import { ticks } from '../../bench/map/axis-ticks';
 import { axisTicks, axisTitle, fractionOf, type AxisSpec } from '../snapshot/axes';
 

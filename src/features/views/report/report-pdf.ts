@@ -6,7 +6,8 @@
  */
 import fontkit from '@pdf-lib/fontkit';
 import { PDFDocument, rgb, type PDFFont, type PDFImage, type PDFPage } from 'pdf-lib';
-import type { Mark, SnapshotHeader, ThreadComment, ViewDetail } from '../../../../server/schemas/views';
+import type { Mark, ThreadComment, ViewDetail } from '../../../../server/schemas/views';
+import type { SnapshotHeader } from '../../../../workers/io/snapshot-format';
 import type { RegisteredRecording } from '../../../../server/schemas/recordings';
 import { axisTicks, axisTitle, formatAxisValue, fractionOf, type AxisSpec } from '../snapshot/axes';
 import { guideLines } from '../snapshot/guide-lines';

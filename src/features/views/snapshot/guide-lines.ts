@@ -6,6 +6,7 @@
  * carrier schedule. Every other guide is listed with the reason it is not drawn. No DOM.
  */
 import type { GuideRef, ViewState } from '../../../../server/schemas/views';
+import { guideFrequencyHz, guideLabel as nameOf, type Guide } from '../../../../workers/dsp/guide-formula';
 import type { AxisSpec } from './axes';
 
 /** A polyline in axis units, [x, y] per point. */
@@ -24,16 +25,10 @@ export interface GuideLine {
   reason: string | null;
 }
 
-const minus = '\u2212';
-const num = (v: number) => (Number.isInteger(v) ? String(v) : String(Number(v.toPrecision(4))));
+/** A view's guide (families in electrical orders) as the shared formula takes it. */
+const asGuide = (g: GuideRef): Guide => (g.kind === 'order' ? g : { kind: 'family', m: g.m, n: g.n, per: 'electrical' });
 
-export function guideLabel(g: GuideRef): string {
-  if (g.kind === 'order') return `${num(g.order)}·fr`;
-  const c = g.m === 1 ? 'fc' : `${g.m}fc`;
-  if (g.n === 0) return c;
-  const a = Math.abs(g.n);
-  return `${c}${g.n > 0 ? '+' : minus}${a === 1 ? '' : a}fe`;
-}
+export const guideLabel = (g: GuideRef) => nameOf(asGuide(g));
 
 export const guideKey = (g: GuideRef) => (g.kind === 'order' ? `order:${g.order}` : `family:${g.m}:${g.n}`);
 
@@ -75,8 +70,9 @@ function resolve(g: GuideRef, state: ViewState, frame: Frame | null): { polyline
     [point(other.from, hzAt(toRpm(other, other.from))), point(other.to, hzAt(toRpm(other, other.to)))],
   ];
 
+  const guide = asGuide(g);
   if (g.kind === 'order') {
-    if (other.kind === 'speed') return { polylines: acrossSpeed((rpm) => (g.order * rpm) / 60), reason: null };
+    if (other.kind === 'speed') return { polylines: acrossSpeed((rpm) => guideFrequencyHz(guide, { rpm, carrierHz: NaN, polePairs: NaN })), reason: null };
     return { polylines: [], reason: 'Needs the speed over time, which the view does not carry.' };
   }
 
@@ -84,10 +80,9 @@ function resolve(g: GuideRef, state: ViewState, frame: Frame | null): { polyline
   if (other.kind === 'speed') {
     if (state.carrierSchedule.length === 0) return { polylines: [], reason: 'Needs the carrier frequency.' };
     if (fc === null) return { polylines: [], reason: 'The carrier changes during the run; the view does not say at which speed.' };
-    if (g.n === 0) return { polylines: acrossSpeed(() => g.m * fc), reason: null };
     const p = state.polePairs;
-    if (p === null) return { polylines: [], reason: 'Needs the pole pairs.' };
-    return { polylines: acrossSpeed((rpm) => g.m * fc + (g.n * p * rpm) / 60), reason: null };
+    if (g.n !== 0 && p === null) return { polylines: [], reason: 'Needs the pole pairs.' };
+    return { polylines: acrossSpeed((rpm) => guideFrequencyHz(guide, { rpm, carrierHz: fc, polePairs: p ?? NaN })), reason: null };
   }
 
   if (g.n !== 0) return { polylines: [], reason: 'Needs the speed over time, which the view does not carry.' };
@@ -98,7 +93,8 @@ function resolve(g: GuideRef, state: ViewState, frame: Frame | null): { polyline
   for (const s of state.carrierSchedule) {
     const a = Math.max(s.fromS, t0);
     const b = Math.min(s.toS, t1);
-    if (b > a) polylines.push([point(fromSeconds(other, a), g.m * s.carrierHz), point(fromSeconds(other, b), g.m * s.carrierHz)]);
+    const hz = guideFrequencyHz(guide, { rpm: NaN, carrierHz: s.carrierHz, polePairs: NaN });
+    if (b > a) polylines.push([point(fromSeconds(other, a), hz), point(fromSeconds(other, b), hz)]);
   }
   return polylines.length > 0 ? { polylines, reason: null } : { polylines: [], reason: 'The carrier schedule lies outside the snapshot.' };
 }

@@ -5,7 +5,7 @@
  *
  *   offset 0   4 bytes   magic, ASCII "FLS1"
  *   offset 4   u32 LE    H, the header's length in bytes
- *   offset 8   H bytes   the header, UTF-8 JSON (snapshotHeader in server/schemas/views.ts):
+ *   offset 8   H bytes   the header, UTF-8 JSON (snapshotHeader in snapshot-format.ts):
  *                        { width, height, encoding: 'u8-db', dbTop, dbRange,
  *                          axes: { x: {kind, from, to, unit}, y: {…} }, tracks?, findings? }
  *   offset 8+H width×height bytes, nothing after them
@@ -15,7 +15,7 @@
  * 255 at or above its top.
  */
 import type { z } from 'zod';
-import { SNAPSHOT_MAGIC, snapshotHeader, type SnapshotHeader } from '../schemas/views';
+import { SNAPSHOT_MAGIC, snapshotHeader, type SnapshotHeader } from './snapshot-format';
 
 export const SNAPSHOT_HEADER_MAX_BYTES = 1024 * 1024;
 const PREFIX = 8;

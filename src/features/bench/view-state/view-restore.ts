@@ -6,11 +6,12 @@
  */
 import type { GuideRef, Mark, ViewDetail, ViewState } from '../../../../server/schemas/views';
 import { upgradeViewState } from '../../../../server/schemas/views';
-import type { InitialMapSettings } from '../components/map-settings';
-import type { PoleChoice } from '../components/speed-source';
-import type { SpeedSource } from '../hooks/use-speed-curve';
+import type { InitialMapSettings } from '../session/use-map-settings';
+import type { PoleChoice } from '../session/use-inputs-model';
+import type { SpeedSource } from '../../../../workers/io/speed-source';
 import { scaleOrDefault } from '../../views/snapshot/paint';
-import { familyLabel, familyLineId, orderLabel, orderLineId, type CarrierGuideSpec, type Family, type GuidesState, type OrderGuideSpec } from '../map/guides';
+import { guideLabel } from '../../../../workers/dsp/guide-formula';
+import { familyLineId, orderLineId, type CarrierGuideSpec, type Family, type GuidesState, type OrderGuideSpec } from '../map/guides';
 import type { Viewport } from '../map/viewport';
 import type { BenchMark } from './view-snapshot';
 
@@ -120,7 +121,7 @@ function speedSourceOf(s: NonNullable<ReturnType<typeof upgradeViewState>['speed
 }
 
 /** The name of a guide a mark is on: "8·fr", "fc−2fe". */
-export const guideName = (g: GuideRef) => (g.kind === 'order' ? orderLabel(g.order) : familyLabel(g.m, g.n, 'electrical'));
+export const guideName = (g: GuideRef) => guideLabel(g);
 
 /**
  * A saved mark in the map's terms: a point or box where it was placed, a guide mark with its guide. `id`

@@ -7,13 +7,14 @@
  */
 import type { z } from 'zod';
 import type { InverterReport } from '../../../../workers/dsp/inverter-analysis';
-import type { CreateMarkBody, GuideRef, SnapshotHeader, viewStateV1 } from '../../../../server/schemas/views';
-import { quantiseDb } from '../../../../server/services/snapshot-codec';
-import type { TrackSeries } from '../analysis/spectra';
+import type { CreateMarkBody, GuideRef, viewStateV1 } from '../../../../server/schemas/views';
+import type { SnapshotHeader } from '../../../../workers/io/snapshot-format';
+import { quantiseDb } from '../../../../workers/io/snapshot-codec';
 import type { GuideLine, GuidesState } from '../map/guides';
 import type { MapRaster } from '../map/map-raster';
 import type { Viewport } from '../map/viewport';
-import type { SpeedSource } from '../hooks/use-speed-curve';
+import { toneText } from '../../../lib/tone-text';
+import type { SpeedSource } from '../../../../workers/io/speed-source';
 
 export const SNAPSHOT_MAX_WIDTH = 1024;
 export const SNAPSHOT_MAX_HEIGHT = 768;
@@ -134,8 +135,8 @@ export interface BenchViewInputs {
   /** Where polePairs came from: typed on the Bench, or inferred from the sideband spacing */
   polePairsSource: 'typed' | 'inferred' | null;
   durationS: number;
-  /** The tracks of the selected lines as the dock computes them (computeTracks), with their names */
-  tracks: { series: TrackSeries[]; names: Map<string, string>; unit: string } | null;
+  /** The tracks of the selected lines as the dock shows them (guideTracks), each with its name */
+  tracks: { series: TrackForSnapshot[]; unit: string } | null;
 }
 
 /** Points per track in a snapshot: plenty for a chart a page wide, and the file stays small. */
@@ -143,14 +144,20 @@ export const SNAPSHOT_TRACK_POINTS = 2000;
 
 type SnapshotTrack = NonNullable<SnapshotHeader['tracks']>[number];
 
+/** A track as the snapshot takes it: its name, and its levels (dB) along the map's x. */
+export interface TrackForSnapshot {
+  name: string;
+  x: ArrayLike<number>;
+  db: ArrayLike<number>;
+}
+
 /**
  * The tracks inside the visible x range (time or speed), each at most `limit` points: a longer track
  * is cut into equal runs, each run one point at its middle with the highest level in it (so a narrow
  * peak survives, as in quantiseVisible). Levels that are not finite become null (a gap).
  */
 export function snapshotTracks(
-  series: TrackSeries[],
-  names: Map<string, string>,
+  series: TrackForSnapshot[],
   unit: string,
   range: [number, number],
   limit = SNAPSHOT_TRACK_POINTS,
@@ -172,7 +179,7 @@ export function snapshotTracks(
       const x = (s.x[inside[a]] + s.x[inside[b - 1]]) / 2;
       points.push([round(x), Number.isFinite(top) ? Math.round(top * 100) / 100 : null]);
     }
-    return { name: (names.get(s.line.id) ?? s.line.label).slice(0, 120), unit: unit.slice(0, 20), points };
+    return { name: s.name.slice(0, 120), unit: unit.slice(0, 20), points };
   });
 }
 
@@ -273,6 +280,10 @@ export function snapshotHeaderOf(
     const source = p.report?.polePairs.source === 'inferred' && p.report.polePairs.value === p.polePairs ? 'inferred from the sideband spacing' : 'given';
     findings.push({ kind: 'pole-pairs', summary: `${p.polePairs} pole pairs (${source})` });
   }
+  for (const t of p.report?.tonality.tones ?? []) {
+    const at = p.against === 'time' && Number.isFinite(t.hz) ? toAxes(p.report!.tonality.atS, t.hz, p.swapped) : undefined;
+    findings.push({ kind: 'carrier-tone', summary: toneText(t, p.report!.tonality.atS).slice(0, 300), ...(at ? { at } : {}) });
+  }
   const selected = p.lines.filter((l) => l.selected);
   if (selected.length > 0) {
     findings.push({ kind: 'selected-tracks', summary: `Tracks shown: ${selected.map((l) => l.label).join(', ')}`.slice(0, 300) });
@@ -284,7 +295,7 @@ export function snapshotHeaderOf(
     dbTop: p.topDb,
     dbRange: p.rangeDb,
     axes: { x: axes.x, y: axes.y },
-    ...(p.tracks && p.tracks.series.length > 0 ? { tracks: snapshotTracks(p.tracks.series, p.tracks.names, p.tracks.unit, p.view.x) } : {}),
+    ...(p.tracks && p.tracks.series.length > 0 ? { tracks: snapshotTracks(p.tracks.series, p.tracks.unit, p.view.x) } : {}),
     findings: findings.slice(0, 200),
   };
 }

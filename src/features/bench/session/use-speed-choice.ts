@@ -1,7 +1,7 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import { useUpdateSpeedSource } from '../../library/api/library';
-import { speedSourceProblem, type SpeedSource } from './use-speed-curve';
+import { speedSourceProblem, type SpeedSource } from '../../../../workers/io/speed-source';
 
 const SAVE_PAUSE_MS = 400;
 

@@ -1,0 +1,73 @@
+import { Notice } from '../../../components/ui/notice';
+import { MIN_BLOCK_SAMPLES } from '../session/use-map-model';
+import { useBench, useBenchActions } from '../session/bench-session';
+import { toolButtonClass } from './bench-panel';
+import { windowLabel } from './map-settings';
+
+const fmt = (v: number, decimals: number) => v.toFixed(decimals);
+
+/** The map's progress (with Cancel), where it stopped (with Compute again), or what it is once done. */
+export function MapStatusLine({ exportError }: { exportError: string | null }) {
+  const a = useBenchActions();
+  const status = useBench((s) => s.map.status);
+  const layout = useBench((s) => s.map.layout);
+  const fsHz = useBench((s) => s.recording.decoded.header.sampleRateHz);
+  const windowName = useBench((s) => s.settings.windowName);
+  const percent = status.kind === 'computing' || status.kind === 'cancelled' ? Math.round(status.fraction * 100) : 0;
+  return (
+    <div className="flex min-h-7 flex-wrap items-center gap-3 pl-16">
+      {status.kind === 'computing' && (
+        <>
+          <div
+            role="progressbar"
+            aria-label="Computing the map"
+            aria-valuemin={0}
+            aria-valuemax={100}
+            aria-valuenow={percent}
+            className="h-1.5 w-64 overflow-hidden rounded-full bg-ink-700"
+          >
+            <div className="h-full bg-accent transition-[width]" style={{ width: `${percent}%` }} />
+          </div>
+          <span className="font-mono text-xs text-mist-500">{percent} %</span>
+          <button type="button" className={toolButtonClass()} onClick={a.cancelMap}>
+            Cancel
+          </button>
+        </>
+      )}
+      {status.kind === 'cancelled' && (
+        <>
+          <p className="text-sm text-mist-300" role="status">
+            Stopped at <span className="font-mono">{percent} %</span>.
+          </p>
+          <button type="button" className={toolButtonClass()} onClick={a.restartMap}>
+            Compute again
+          </button>
+        </>
+      )}
+      {status.kind === 'done' && layout && (
+        <p className="text-xs text-mist-500" data-testid="map-done" data-engine={status.engine}>
+          {layout.frames} spectra of {fmt(layout.blockSize / fsHz, 3)} s, {windowLabel[windowName]} window.
+        </p>
+      )}
+      {exportError && <p className="text-xs text-danger">{exportError}</p>}
+      <p className="ml-auto text-[11px] text-mist-500">Drag to pan · wheel to zoom · Shift-drag a box · double-click for the whole map · ? for keys</p>
+    </div>
+  );
+}
+
+/** Why there is no map, or what a gesture just did. */
+export function MapNotices() {
+  const tooShort = useBench((s) => s.tooShort);
+  const calibrationBad = useBench((s) => s.calibrationBad);
+  const channel = useBench((s) => s.settings.channel);
+  const status = useBench((s) => s.map.status);
+  const note = useBench((s) => s.note);
+  return (
+    <>
+      {tooShort && <Notice>The recording is shorter than the smallest block ({MIN_BLOCK_SAMPLES} samples), so it has no map.</Notice>}
+      {calibrationBad && <Notice tone="error">The calibration of channel {channel + 1} is not usable; the map keeps the last one that was.</Notice>}
+      {status.kind === 'error' && <Notice tone="error">{status.message}</Notice>}
+      {note && <Notice>{note}</Notice>}
+    </>
+  );
+}

@@ -1,0 +1,124 @@
+import { createContext, useContext, useLayoutEffect, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
+import type { OpenRecording } from '../hooks/use-recording-reader';
+import type { ViewOnBench } from '../view-state/view-restore';
+import { captureView } from './capture-view';
+import { createBenchStores, type BenchStores } from './live-stores';
+import { createStore, type Store } from './store';
+import { useAnalysisModel } from './use-analysis-model';
+import { useInputsModel } from './use-inputs-model';
+import { useMapModel } from './use-map-model';
+import { useViewModel } from './use-view-model';
+
+/**
+ * One Bench session: recording → channel setup → speed → map → findings → guide lines → tracks, and
+ * how the engineer looks at them. The model hooks own every computation (they alone start worker
+ * tasks); the state lands in a store that panels read through selectors, so a panel re-renders only
+ * for what it shows.
+ */
+function useBenchModel(recording: OpenRecording, fromView: ViewOnBench | undefined, preferredProjectId: number | null, live: BenchStores) {
+  const restore = fromView?.restore;
+  const inputs = useInputsModel(recording, restore);
+  const map = useMapModel(recording, inputs.state.setup, inputs.state.speed, restore);
+  const m = map.state;
+  const analysis = useAnalysisModel(
+    {
+      power: m.map.power,
+      done: m.map.done,
+      frames: m.map.layout?.frames ?? 0,
+      frameRpm: m.frameRpm,
+      rpmStep: m.rpmStep,
+      against: m.against,
+      settings: m.settings,
+      enbwBins: m.enbwBins,
+      reference: m.reference,
+      channelSetup: m.channelSetup,
+      typedPoles: inputs.state.typedPoles,
+    },
+    restore,
+  );
+  const view = useViewModel({
+    live,
+    fromView,
+    raster: m.raster,
+    layout: m.map.layout,
+    power: m.map.power,
+    extents: m.extents,
+    against: m.against,
+    frameRpm: m.frameRpm,
+    rpmStep: m.rpmStep,
+    windowName: m.settings.windowName,
+    report: analysis.state.report,
+    detectedHz: analysis.state.detectedHz,
+    dispatchGuides: analysis.actions.dispatchGuides,
+  });
+  const state = { recording, fromView, preferredProjectId, ...inputs.state, ...m, ...analysis.state, ...view.state };
+  const actions = {
+    ...inputs.actions,
+    ...map.actions,
+    ...analysis.actions,
+    ...view.actions,
+    capture: () => captureView(state, live.viewport.get()),
+  };
+  return { state, actions };
+}
+
+export type BenchState = ReturnType<typeof useBenchModel>['state'];
+export type BenchActions = ReturnType<typeof useBenchModel>['actions'];
+
+interface SessionContext {
+  store: Store<BenchState>;
+  actions: BenchActions;
+  live: BenchStores;
+}
+
+const Session = createContext<SessionContext | null>(null);
+
+/** Actions that never change identity, each calling the latest closure (so panels need not re-render for them). */
+function stableActions<A extends object>(latest: { current: A }): A {
+  const out: Record<string, unknown> = {};
+  for (const key of Object.keys(latest.current)) out[key] = (...args: unknown[]) => (latest.current as Record<string, (...a: unknown[]) => unknown>)[key](...args);
+  return out as A;
+}
+
+/** Mount keyed by the recording's fingerprint: all of a session belongs to one recording. */
+export function BenchSession({
+  recording,
+  fromView,
+  preferredProjectId,
+  children,
+}: {
+  recording: OpenRecording;
+  /** A saved view of this recording to start from (`?view=`): its settings, guides, zoom and marks */
+  fromView?: ViewOnBench;
+  preferredProjectId: number | null;
+  children: ReactNode;
+}) {
+  const [live] = useState(createBenchStores);
+  const { state, actions } = useBenchModel(recording, fromView, preferredProjectId, live);
+  const [store] = useState(() => createStore(state));
+  useLayoutEffect(() => store.set(state));
+  const latest = useRef(actions);
+  useLayoutEffect(() => {
+    latest.current = actions;
+  });
+  const [stable] = useState(() => stableActions(latest));
+  const value = useMemo(() => ({ store, actions: stable, live }), [store, stable, live]);
+  return <Session.Provider value={value}>{children}</Session.Provider>;
+}
+
+function useSession(): SessionContext {
+  const s = useContext(Session);
+  if (!s) throw new Error('A Bench panel was rendered outside its BenchSession.');
+  return s;
+}
+
+/** One piece of the session; select a field (or something else that keeps its identity), not a new object. */
+export function useBench<T>(select: (s: BenchState) => T): T {
+  const { store } = useSession();
+  return useSyncExternalStore(store.subscribe, () => select(store.get()));
+}
+
+export const useBenchActions = (): BenchActions => useSession().actions;
+
+/** The pointer and the zoom: they change many times a second, so they are stores of their own. */
+export const useBenchLive = (): BenchStores => useSession().live;

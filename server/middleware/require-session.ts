@@ -4,7 +4,7 @@ import type { PublicUser } from '../schemas/auth';
 import type { AuthService } from '../services/auth-service';
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
+  // eslint-disable-next-line @typescript-eslint/no-namespace -- Express types its Request in a global namespace; augmenting it needs one
   namespace Express {
     interface Request {
       user?: PublicUser;

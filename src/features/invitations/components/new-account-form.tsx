@@ -10,7 +10,7 @@ import { TextField } from '../../../components/ui/text-field';
 import { paths, signInThen } from '../../../config/paths';
 import { ApiError } from '../../../lib/api-client';
 import { applyServerErrors } from '../../../lib/form-errors';
-import { newAccountForm } from '../../auth/forms';
+import { newAccountForm } from '../../auth';
 import { useAcceptInvitation, type AcceptAnswer } from '../api/invitations';
 
 type Input = z.input<typeof newAccountForm>;

@@ -11,10 +11,10 @@ import { Link } from 'react-router-dom';
 import type { RegisteredRecording } from '../../../../server/schemas/recordings';
 import { Notice } from '../../../components/ui/notice';
 import { Section } from '../../../components/ui/section';
+import { SortHeader } from '../../../components/ui/sort-header';
 import { linkClass, tableHeadRowClass } from '../../../components/ui/styles';
 import { benchFor, paths } from '../../../config/paths';
 import { formatDateTime, formatHz, formatSeconds } from '../../../lib/format';
-import { SortHeader } from '../../views/components/sort-header';
 import { useProjectRecordings } from '../api/recordings';
 
 const col = createColumnHelper<RegisteredRecording>();

@@ -1,6 +1,6 @@
 /**
  * `npm test`: a separate private MariaDB (its own port and data folder, so it runs beside `npm start`),
- * a fresh test database, migrations and seed, a type check, the client build, then every test (unit,
+ * a fresh test database, migrations and seed, a type check, lint, the client build, then every test (unit,
  * API and browser) in one vitest run. Prints vitest's summary and, last, `tests: N passed, N failed`.
  * Extra arguments go to vitest (`npm test -- tests/unit`).
  */
@@ -32,6 +32,8 @@ interface VitestJsonReport {
 }
 
 const bin = (name: string) => path.join(PROJECT_ROOT, 'node_modules', '.bin', name);
+// TypeScript 7's tsc; node_modules/.bin/tsc is TypeScript 6's, from the compiler API package that typescript-eslint needs.
+const tsc7 = path.join(PROJECT_ROOT, 'node_modules', 'typescript7', 'bin', 'tsc');
 const config = loadConfig();
 
 await holdRunLock('test');
@@ -43,8 +45,12 @@ await startMailFakeIfWanted(config);
 
 prepareDemoRecordings(config);
 console.log('fanlight test: type check');
-const typecheck = await run(bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']);
+const typecheck = await run(tsc7, ['--noEmit', '-p', 'tsconfig.json']);
 if (typecheck !== 0) console.error('fanlight test: the type check failed (see above)');
+
+console.log('fanlight test: lint');
+const lint = await run(bin('eslint'), ['.', '--max-warnings', '0']);
+if (lint !== 0) console.error('fanlight test: lint failed (see above; `npm run lint` runs it alone)');
 
 console.log('fanlight test: building the client');
 console.log(`fanlight test: client ${await buildClientIfStale(config.clientDir)}`);
@@ -68,5 +74,6 @@ if (existsSync(report)) {
 } else if (vitest !== 0) {
   console.error('fanlight test: vitest wrote no report');
 }
+if (lint !== 0) console.error('fanlight test: lint failed, so the run fails (`npm run lint` to see why)');
 console.log(`tests: ${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
-await shutdown(vitest !== 0 || typecheck !== 0 || failed > 0 ? 1 : 0);
+await shutdown(vitest !== 0 || typecheck !== 0 || lint !== 0 || failed > 0 ? 1 : 0);

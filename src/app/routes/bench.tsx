@@ -13,7 +13,7 @@ import { useRecordingReader } from '../../features/bench/hooks/use-recording-rea
 import { useViewOnBench } from '../../features/bench/hooks/use-view-on-bench';
 import { demoSetup, fetchDemoRecording, useDemoRecordings } from '../../features/bench/api/demo-recordings';
 import { errorMessage } from '../../lib/error-message';
-import type { LibraryEntry } from '../../features/library/library-store';
+import type { LibraryEntry } from '../../features/library/api/library-store';
 import { warmPool } from '../../lib/workers/analysis-pool';
 
 /**

@@ -32,7 +32,7 @@ function abortError(): Error {
 
 function laneFor(name: TaskLane): Lane | null {
   if (noWorkers) return null;
-  let lane = lanes.get(name);
+  const lane = lanes.get(name);
   if (lane) return lane;
   try {
     const worker = new Worker(new URL('../../../workers/analysis.worker.ts', import.meta.url), { type: 'module', name: `fanlight-${name}` });

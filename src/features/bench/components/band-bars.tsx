@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState, type PointerEvent } from 'react';
 import type { BandLevel } from '../analysis/spectra';
-import { ticks } from '../map/axis-ticks';
+import { ticks } from '../../../lib/plot/axis-ticks';
 
 const labelled = new Set([31.5, 63, 125, 250, 500, 1000, 2000, 4000, 8000, 16000]);
 const shortHz = (hz: number) => (hz >= 1000 ? `${hz / 1000}k` : String(hz));

@@ -18,12 +18,14 @@ export function BandsPanel() {
   }, [view]);
   const unit = `${dbUnit(p.weighting)} re ${p.reference.label}`;
   const against = p.against === 'speed' && p.frameRpm ? 'speed' : 'time';
+  // the map's mean squares fill in place: the frames done so far say when there are more to average
+  const framesDone = p.ready ? (p.power?.layout.frames ?? 0) : (p.power?.frames ?? 0);
   const result = useMemo(() => {
-    if (!p.power || !range || p.power.frames === 0) return null;
-    const avg = averagedOver(p.power.power, p.power.layout, p.power.frames, against, range, p.frameRpm);
+    if (!p.power || !range || framesDone === 0) return null;
+    const avg = averagedOver(p.power.power, p.power.layout, framesDone, against, range, p.frameRpm);
     if (!avg) return null;
     return { ...bandLevels(avg.avg, p.power.layout, binGains(p.power.layout, p.weighting), p.enbwBins, p.reference.refRms), frames: avg.frames };
-  }, [p.power, p.ready, range, against, p.frameRpm, p.weighting, p.enbwBins, p.reference.refRms]);
+  }, [p.power, framesDone, range, against, p.frameRpm, p.weighting, p.enbwBins, p.reference.refRms]);
 
   const exportCsv = () => {
     if (!result) return;

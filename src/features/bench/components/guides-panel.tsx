@@ -10,12 +10,12 @@ import {
   type GuidesAction,
 } from '../map/guides';
 import { BenchPanel, smallInputClass, smallSelectClass, toolButtonClass } from './bench-panel';
-import { GUIDE_COLOURS } from './map-view';
+import { guideColour } from '../../../lib/plot/overlay';
 
 const parse = (t: string) => (t.trim() === '' ? Number.NaN : Number(t.trim().replace(',', '.').replace('\u2212', '-')));
 
 function Swatch({ selected, kind }: { selected: boolean; kind: 'order' | 'family' }) {
-  const colour = selected ? GUIDE_COLOURS.selected : kind === 'order' ? GUIDE_COLOURS.order : GUIDE_COLOURS.family;
+  const colour = guideColour(kind, selected);
   return (
     <span
       aria-hidden
@@ -46,7 +46,7 @@ function LineRow({
 }) {
   return (
     <li className={`group flex items-center gap-2 py-0.5 text-xs ${hidden ? 'opacity-50' : ''}`} data-testid={kind === 'order' ? 'guide-order' : 'guide-family'}>
-      <input type="checkbox" className="accent-[#f0a93e]" checked={selected} onChange={onToggle} aria-label={`Track ${label}`} title="Track it in the dock; tracked lines are drawn in the accent colour" />
+      <input type="checkbox" className="accent-accent" checked={selected} onChange={onToggle} aria-label={`Track ${label}`} title="Track it in the dock; tracked lines are drawn in the accent colour" />
       <Swatch selected={selected} kind={kind} />
       <span className={`font-mono ${selected ? 'text-accent-strong' : 'text-mist-100'}`}>{label}</span>
       <span className="font-mono text-[11px] text-mist-500">{detail}</span>

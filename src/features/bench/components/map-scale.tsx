@@ -1,5 +1,5 @@
-import { lutCss } from '../map/colour-scales';
-import { ticks } from '../map/axis-ticks';
+import { lutCss } from '../../../lib/plot/colour-scales';
+import { ticks } from '../../../lib/plot/axis-ticks';
 
 /** The colour bar beside the map: the lookup from floor to top, with levels in dB against the reference. */
 export function MapScale({

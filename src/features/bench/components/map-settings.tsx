@@ -2,7 +2,7 @@ import { useId, type ReactNode } from 'react';
 import { MAX_BLOCK, MIN_BLOCK } from '../../../../workers/dsp/stft';
 import { windowNames, type WindowName } from '../../../../workers/dsp/window';
 import type { Weighting } from '../../../../workers/dsp/weighting';
-import { colourScaleLabel, colourScaleNames, type ColourScaleName } from '../map/colour-scales';
+import { colourScaleLabel, colourScaleNames, type ColourScaleName } from '../../../lib/plot/colour-scales';
 import { useBench, useBenchActions } from '../session/bench-session';
 import { smallInputClass, smallSelectClass } from './bench-panel';
 

@@ -10,7 +10,7 @@ import { paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api-client';
 import { useProjects } from '../../projects/api/projects';
 import { useRegisterRecording } from '../../projects/api/recordings';
-import type { LibraryEntry } from '../../library/library-store';
+import type { LibraryEntry } from '../../library/api/library-store';
 
 type Outcome = { tone: 'ok' | 'error'; message: string; projectId?: number };
 

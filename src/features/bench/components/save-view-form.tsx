@@ -1,50 +1,22 @@
-import { useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
-import { Link } from 'react-router-dom';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
-import { registerRecordingBody } from '../../../../server/schemas/recordings';
-import { createViewBody, saveViewBody, saveViewChangesBody, type ViewDetail } from '../../../../server/schemas/views';
-import { SNAPSHOT_CONTENT_TYPE, snapshotHeader, type SnapshotHeader } from '../../../../workers/io/snapshot-format';
-import { encodeSnapshot } from '../../../../workers/io/snapshot-codec';
+import { createViewBody, saveViewChangesBody, type ViewDetail } from '../../../../server/schemas/views';
+import { snapshotHeader, type SnapshotHeader } from '../../../../workers/io/snapshot-format';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { SelectField } from '../../../components/ui/select-field';
 import { TextField } from '../../../components/ui/text-field';
-import { linkClass } from '../../../components/ui/styles';
-import { paths } from '../../../config/paths';
-import { api, ApiError } from '../../../lib/api-client';
+import { ApiError } from '../../../lib/api-client';
+import { errorMessage } from '../../../lib/error-message';
 import { useMe } from '../../auth/api/auth';
 import { useProjects } from '../../projects/api/projects';
-import { projectRecordingsQuery, useRegisterRecording } from '../../projects/api/recordings';
-import { viewKeys } from '../../views/api/keys';
-import type { LibraryEntry } from '../../library/library-store';
+import type { LibraryEntry } from '../../library/api/library-store';
+import { issuesText, useSaveNewView, useSaveViewChanges } from '../api/save-view';
+import type { ViewCapture } from '../session/capture-view';
 import type { ViewOnBench } from '../view-state/view-restore';
 import { markBody, type BenchMark } from '../view-state/view-snapshot';
 import { setupProblems } from './register-form';
-
-/** What the workbench hands over when the view is saved: taken at that moment from what is on screen. */
-export interface ViewCapture {
-  state: unknown;
-  header: SnapshotHeader;
-  map: Uint8Array;
-  swapped: boolean;
-}
-
-type Outcome = { tone: 'ok'; viewId: number; title: string } | { tone: 'error'; message: string };
-
-/** The multipart body of a whole save: the view (with its marks) as JSON, and the snapshot file. */
-function wholeView(view: unknown, snapshot: Uint8Array): FormData {
-  const form = new FormData();
-  form.append('view', JSON.stringify(view));
-  form.append('snapshot', new Blob([snapshot.slice()], { type: SNAPSHOT_CONTENT_TYPE }), 'map.fls');
-  return form;
-}
-
-const issuesText = (issues: { path: PropertyKey[]; message: string }[]) =>
-  issues
-    .slice(0, 4)
-    .map((i) => (i.path.length ? `${i.path.map(String).join('.')}: ${i.message}` : i.message))
-    .join(' ');
+import { SaveOutcome, type Outcome } from './save-outcome';
 
 /**
  * Saves what the Bench shows as a view of a project: registers the recording there first when the
@@ -70,15 +42,14 @@ export function SaveViewForm({
   fromView?: ViewOnBench;
   onSaved: () => void;
 }) {
-  const qc = useQueryClient();
   const { data: me } = useMe();
   // the version of the view the Bench was opened from, moved on by each save into it
   const [fromVersion, setFromVersion] = useState(fromView?.view.version ?? 0);
   const { data: projects, isPending, error } = useProjects();
-  const register = useRegisterRecording();
+  const saveNew = useSaveNewView();
+  const saveInto = useSaveViewChanges();
   const [title, setTitle] = useState('');
   const [chosen, setChosen] = useState<number | null>(null);
-  const [busy, setBusy] = useState(false);
   const [outcome, setOutcome] = useState<Outcome | null>(null);
 
   if (isPending) return <p className="text-sm text-mist-500">Loading your projects…</p>;
@@ -93,24 +64,6 @@ export function SaveViewForm({
     fromView !== undefined && !fromView.view.archived && (fromRole === 'lead' || (fromRole === 'engineer' && fromView.view.author?.id === me?.id));
   const projectId = chosen ?? preferred?.id ?? eligible[0].id;
   const project = eligible.find((p) => p.id === projectId)!;
-
-  const recordingIdIn = async (pid: number): Promise<number> => {
-    const known = await qc.fetchQuery(projectRecordingsQuery(pid));
-    const found = known.find((r) => r.fingerprint === entry.fingerprint);
-    if (found) return found.id;
-    const problems = setupProblems(setup);
-    if (problems.length > 0) throw new Error(`The recording must be registered with ${project.name} first; fix the channel setup. ${problems.join(' ')}`);
-    const body = registerRecordingBody.safeParse({
-      name: entry.name,
-      fingerprint: entry.fingerprint,
-      format: entry.format,
-      sampleRateHz: entry.sampleRateHz,
-      durationS: entry.durationS,
-      channels: setup.map(({ index, name, quantity, unit, calibration }) => ({ index, name, quantity, unit, calibration })),
-    });
-    if (!body.success) throw new Error(issuesText(body.error.issues));
-    return (await register.mutateAsync({ projectId: pid, body: body.data })).recording.id;
-  };
 
   /** What is on screen now, with its snapshot header checked; null (and the reason shown) if there is none. */
   const take = (): { taken: ViewCapture; header: SnapshotHeader } | null => {
@@ -128,19 +81,15 @@ export function SaveViewForm({
     return { taken, header: header.data };
   };
 
-  /** Runs a save (view, snapshot and pending marks in one request) and reports. */
-  const save = async (writeView: () => Promise<ViewDetail>, refused: (e: ApiError) => string | null) => {
-    setBusy(true);
+  const busy = saveNew.isPending || saveInto.isPending;
+  /** Runs a save and reports; `refused` words the server's refusals the engineer can act on. */
+  const save = async (write: () => Promise<ViewDetail>, refused: (e: ApiError) => string | null) => {
     try {
-      const view = await writeView();
-      await qc.invalidateQueries({ queryKey: viewKeys.all });
+      const view = await write();
       setOutcome({ tone: 'ok', viewId: view.id, title: view.title });
       onSaved();
     } catch (err) {
-      const message = (err instanceof ApiError ? refused(err) : null) ?? (err instanceof Error ? err.message : String(err));
-      setOutcome({ tone: 'error', message });
-    } finally {
-      setBusy(false);
+      setOutcome({ tone: 'error', message: (err instanceof ApiError ? refused(err) : null) ?? errorMessage(err) });
     }
   };
 
@@ -157,12 +106,17 @@ export function SaveViewForm({
       return;
     }
     await save(
-      async () => {
-        const recordingId = await recordingIdIn(project.id);
-        const body = saveViewBody.parse({ title, recordingId, state: now.taken.state, marks: pendingMarks(now.taken.swapped) });
-        const form = wholeView(body, encodeSnapshot(now.header, now.taken.map));
-        return (await api.sendForm<{ view: ViewDetail }>('POST', `/projects/${project.id}/views`, form)).view;
-      },
+      () =>
+        saveNew.mutateAsync({
+          project,
+          entry,
+          setup,
+          setupProblems: setupProblems(setup),
+          title,
+          state: now.taken.state,
+          marks: pendingMarks(now.taken.swapped),
+          picture: { header: now.header, map: now.taken.map },
+        }),
       (err) => (err.status === 403 ? `Only the engineers and leads of ${project.name} can save views in it.` : null),
     );
   };
@@ -193,8 +147,7 @@ export function SaveViewForm({
     }
     await save(
       async () => {
-        const form = wholeView(body.data, encodeSnapshot(now.header, now.taken.map));
-        const { view } = await api.sendForm<{ view: ViewDetail }>('PATCH', `/views/${fromView.view.id}`, form);
+        const view = await saveInto.mutateAsync({ viewId: fromView.view.id, body: body.data, picture: { header: now.header, map: now.taken.map } });
         setFromVersion(view.version);
         return view;
       },
@@ -234,15 +187,7 @@ export function SaveViewForm({
           <span className="text-xs text-mist-500">Replaces its settings and picture{title.trim() ? ' and its title' : ''}; its marks and threads stay.</span>
         </div>
       )}
-      {outcome?.tone === 'error' && <Notice tone="error">{outcome.message}</Notice>}
-      {outcome?.tone === 'ok' && (
-        <Notice tone="ok">
-          Saved as{' '}
-          <Link to={paths.view(outcome.viewId)} className={linkClass} data-testid="saved-view-link">
-            {outcome.title}
-          </Link>
-        </Notice>
-      )}
+      <SaveOutcome outcome={outcome} />
       <p className="text-xs text-mist-500">
         Saves the settings, the visible window, the guides and {marks.length === 0 ? 'the marks you place (none yet)' : marks.length === 1 ? 'the pending mark' : `the ${marks.length} pending marks`} with a small picture of
         the map. The recording is registered with the project first if it is not yet.

@@ -35,20 +35,22 @@ export function SlicePanel() {
   const layout = p.power?.layout ?? null;
   const freq = useMemo(() => (layout ? Float64Array.from({ length: layout.bins }, (_, k) => k * layout.binHz) : null), [layout]);
   const inSpeed = p.against === 'speed' && p.speedRaster;
-  const key = at ? (inSpeed ? `s${at.column}` : `t${at.frame}`) : '';
+  // the slice changes with the frame (or the speed column), not with every move of the pointer within it
+  const column = at ? (inSpeed ? at.column : at.frame) : null;
+  const framesDone = p.power?.frames ?? 0;
   const levels = useMemo(() => {
-    if (!at || !p.power || !layout) return null;
+    if (column === null || !p.power || !layout) return null;
     const gains = binGains(layout, p.weighting);
     const bins = layout.bins;
     if (inSpeed && p.speedRaster) {
-      const i = Math.max(0, Math.min(p.speedRaster.shown.length - 1, at.column));
+      const i = Math.max(0, Math.min(p.speedRaster.shown.length - 1, column));
       const row = p.speedRaster.shown[i];
       if (row < 0) return null;
       return spectrumDb(p.speedRaster.map.power.subarray(row * bins, (row + 1) * bins), gains, p.reference.refRms);
     }
-    if (at.frame >= p.power.frames) return null;
-    return spectrumDb(p.power.power.subarray(at.frame * bins, (at.frame + 1) * bins), gains, p.reference.refRms);
-  }, [key, p.power, p.power?.frames, layout, p.weighting, p.reference.refRms, p.speedRaster, inSpeed]);
+    if (column >= framesDone) return null;
+    return spectrumDb(p.power.power.subarray(column * bins, (column + 1) * bins), gains, p.reference.refRms);
+  }, [column, p.power, framesDone, layout, p.weighting, p.reference.refRms, p.speedRaster, inSpeed]);
 
   const options = useMemo(
     (): Omit<uPlot.Options, 'width' | 'height'> => ({

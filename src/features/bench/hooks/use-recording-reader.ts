@@ -4,7 +4,7 @@ import { defaultSetup, type ChannelSetup } from '../../../../workers/io/channel-
 import type { CsvOptions } from '../../../../workers/io/recording';
 import { DecodeFailure, decodeInWorker } from '../../../lib/workers/decode-client';
 import { useAddToLibrary } from '../../library/api/library';
-import { getEntry, getFile, type LibraryEntry } from '../../library/library-store';
+import { getEntry, getFile, type LibraryEntry } from '../../library/api/library-store';
 
 /** The recording on the Bench: its library entry and its decoded channels (kept in memory only). */
 export interface OpenRecording {

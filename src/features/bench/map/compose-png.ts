@@ -3,9 +3,9 @@
  * the grid labels, the colour bar in the map's unit and a title line, drawn onto one canvas in device
  * pixels and encoded as PNG.
  */
-import type { AxisTicks } from '../components/map-axes';
-import { lutCss } from './colour-scales';
-import { ticks } from './axis-ticks';
+import type { AxisTicks } from '../../../components/plot/map-axes';
+import { lutCss } from '../../../lib/plot/colour-scales';
+import { ticks } from '../../../lib/plot/axis-ticks';
 
 export interface ComposeInput {
   map: HTMLCanvasElement;

@@ -4,7 +4,7 @@ import { makeWindow } from '../../../../workers/dsp/window';
 import { calibrationProblem, unitsPerFileUnit, type ChannelSetup } from '../../../../workers/io/channel-setup';
 import { frameTimes as frameTimesOf } from '../analysis/spectra';
 import type { OpenRecording } from '../hooks/use-recording-reader';
-import { colourLut } from '../map/colour-scales';
+import { colourLut } from '../../../lib/plot/colour-scales';
 import { levelReference } from '../map/level-reference';
 import type { MapRaster } from '../map/map-raster';
 import { speedStep } from '../map/speed-raster';

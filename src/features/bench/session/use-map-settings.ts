@@ -3,7 +3,7 @@ import { MIN_BLOCK, stftLayout } from '../../../../workers/dsp/stft';
 import type { WindowName } from '../../../../workers/dsp/window';
 import type { Weighting } from '../../../../workers/dsp/weighting';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
-import type { ColourScaleName } from '../map/colour-scales';
+import type { ColourScaleName } from '../../../lib/plot/colour-scales';
 
 const DEFAULT_BLOCK = 8192;
 const DEFAULT_OVERLAP = 0.75;

@@ -3,6 +3,7 @@ import { speedTask, type SpeedTaskRequest } from '../../../../workers/analysis.w
 import { speedFromRamp, type SpeedCurve } from '../../../../workers/dsp/speed';
 import { calibrationProblem, unitsPerFileUnit, type ChannelSetup } from '../../../../workers/io/channel-setup';
 import { speedSourceProblem, type SpeedSource } from '../../../../workers/io/speed-source';
+import { errorMessage } from '../../../lib/error-message';
 import { isAbort, runTask } from '../../../lib/workers/analysis-tasks';
 import * as Comlink from 'comlink';
 
@@ -44,7 +45,7 @@ export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channe
       setState({ kind: 'error', message: problem });
       return;
     }
-    const s: SpeedSource = JSON.parse(key).source;
+    const { source: s, scale: k }: { source: SpeedSource; scale: number } = JSON.parse(key);
     if (s.kind === 'none') {
       setState({ kind: 'none' });
       return;
@@ -53,7 +54,7 @@ export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channe
       try {
         setState(summary(speedFromRamp([{ tS: 0, rpm: s.startRpm }, { tS: durationS, rpm: s.endRpm }], durationS)));
       } catch (e) {
-        setState({ kind: 'error', message: e instanceof Error ? e.message : String(e) });
+        setState({ kind: 'error', message: errorMessage(e) });
       }
       return;
     }
@@ -65,7 +66,7 @@ export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channe
     const raw = channels.samples[at];
     const make = (): SpeedTaskRequest => {
       const samples = raw.slice();
-      if (scale !== 1) for (let i = 0; i < samples.length; i++) samples[i] *= scale;
+      if (k !== 1) for (let i = 0; i < samples.length; i++) samples[i] *= k;
       return s.kind === 'tacho'
         ? { kind: 'tacho', samples, fsHz, ppr: s.ppr, ...(s.triggerLevel === null ? {} : { triggerLevel: s.triggerLevel }) }
         : { kind: 'channel', samples, fsHz, rpmPerUnit: s.rpmPerUnit };
@@ -85,7 +86,7 @@ export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channe
       j.promise.then(
         (curve) => setState(summary(curve)),
         (e: unknown) => {
-          if (!isAbort(e)) setState({ kind: 'error', message: e instanceof Error ? e.message : String(e) });
+          if (!isAbort(e)) setState({ kind: 'error', message: errorMessage(e) });
         },
       );
     }, PAUSE_MS);

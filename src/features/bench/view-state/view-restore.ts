@@ -9,7 +9,7 @@ import { upgradeViewState } from '../../../../server/schemas/views';
 import type { InitialMapSettings } from '../session/use-map-settings';
 import type { PoleChoice } from '../session/use-inputs-model';
 import type { SpeedSource } from '../../../../workers/io/speed-source';
-import { scaleOrDefault } from '../../views/snapshot/paint';
+import { scaleOrDefault } from '../../../lib/plot/colour-scales';
 import { guideLabel } from '../../../../workers/dsp/guide-formula';
 import { familyLineId, orderLineId, type CarrierGuideSpec, type Family, type GuidesState, type OrderGuideSpec } from '../map/guides';
 import type { Viewport } from '../map/viewport';

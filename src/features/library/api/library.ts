@@ -9,7 +9,7 @@ import {
   updateSetup,
   updateSpeedSource,
   type LibraryEntry,
-} from '../library-store';
+} from './library-store';
 
 // Descriptions only: the files and the decoded samples never enter the query cache.
 export const libraryKeys = {

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { listLibrary } from '../../library/library-store';
+import { listLibrary } from '../../library/api/library-store';
 import { viewKeys } from './keys';
 
 /** Whether this browser's library holds the recording with this fingerprint (false when IndexedDB is closed to us). */

@@ -1,9 +1,10 @@
 import { useEffect, useMemo, useRef, useState, type KeyboardEvent, type PointerEvent as ReactPointerEvent, type RefObject } from 'react';
+import { guideColour, guideDash, markDash, overlay } from '../../../lib/plot/overlay';
 import type { GuideRef, Mark, ViewState } from '../../../../server/schemas/views';
 import { levelOfByte } from '../../../../workers/io/snapshot-codec';
-import { colourLut, lutCss, type ColourScaleName } from '../../bench/map/colour-scales';
-import { ticks } from '../../bench/map/axis-ticks';
-import { BottomAxis, LeftAxis } from '../../bench/components/map-axes';
+import { colourLut, lutCss, type ColourScaleName } from '../../../lib/plot/colour-scales';
+import { ticks } from '../../../lib/plot/axis-ticks';
+import { BottomAxis, LeftAxis } from '../../../components/plot/map-axes';
 import type { DecodedSnapshot } from '../api/snapshot';
 import { axisTicks, axisTitle, formatAxisValue, fractionOf, valueAt, type AxisSpec } from '../snapshot/axes';
 import { lineForGuide, sameGuide, type GuideLine, type Polyline } from '../snapshot/guide-lines';
@@ -15,10 +16,9 @@ export type PendingPlace =
   | { kind: 'box'; geometry: { x0: number; x1: number; y0: number; y1: number } }
   | { kind: 'guide'; geometry: { guide: GuideRef } };
 
-const ACCENT = '#f0a93e';
-const MIST = '#e8edf4';
-const GUIDE = '#b6c0cf';
-const HALO = '#0d1117';
+const ACCENT = overlay.mark;
+const MIST = overlay.text;
+const HALO = overlay.halo;
 
 interface SnapshotFigureProps {
   snapshot: DecodedSnapshot;
@@ -226,9 +226,9 @@ export function SnapshotFigure({
                 .map((g) =>
                   drawLine(
                     g,
-                    selectedGuide && sameGuide(selectedGuide, g.guide) ? ACCENT : GUIDE,
+                    guideColour(g.guide.kind, !!selectedGuide && sameGuide(selectedGuide, g.guide)),
                     selectedGuide && sameGuide(selectedGuide, g.guide) ? 2 : 1,
-                    '5 4',
+                    guideDash(g.guide.kind).join(' ') || undefined,
                     `guide-${g.key}`,
                   ),
                 )}
@@ -320,7 +320,7 @@ export function SnapshotFigure({
                   height={band.y1 - band.y0}
                   fill="rgb(240 169 62 / 0.08)"
                   stroke={ACCENT}
-                  strokeDasharray="4 3"
+                  strokeDasharray={markDash(false).join(' ')}
                 />
               )}
             </svg>
@@ -369,7 +369,7 @@ function PendingShape({
   axes: { x: AxisSpec; y: AxisSpec };
   polyPath: (line: Polyline) => string;
 }) {
-  const dash = '4 3';
+  const dash = markDash(false).join(' ');
   if (pending.kind === 'point') {
     const [x, y] = px(pending.geometry.x, pending.geometry.y);
     return <circle cx={x} cy={y} r={9} fill="none" stroke={ACCENT} strokeWidth={2} strokeDasharray={dash} data-testid="pending-mark" />;

@@ -1,5 +1,5 @@
 import type { SnapshotHeader } from '../../../../workers/io/snapshot-format';
-import { ticks } from '../../bench/map/axis-ticks';
+import { ticks } from '../../../lib/plot/axis-ticks';
 import { axisTicks, axisTitle, fractionOf, type AxisSpec } from '../snapshot/axes';
 
 const COLOURS = ['#f0a93e', '#8fb8de', '#5cc99a', '#d59bc4', '#b6c0cf', '#e07a5f'];

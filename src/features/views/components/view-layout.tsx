@@ -3,11 +3,11 @@ import type { GuideRef, Mark, ViewState } from '../../../../server/schemas/views
 import { upgradeViewState } from '../../../../server/schemas/views';
 import { Notice } from '../../../components/ui/notice';
 import { Section } from '../../../components/ui/section';
-import { colourScaleLabel } from '../../bench/map/colour-scales';
+import { colourScaleLabel } from '../../../lib/plot/colour-scales';
 import type { DecodedSnapshot } from '../api/snapshot';
 import type { AxisSpec } from '../snapshot/axes';
 import { guideLines } from '../snapshot/guide-lines';
-import { scaleOrDefault } from '../snapshot/paint';
+import { scaleOrDefault } from '../../../lib/plot/colour-scales';
 import { FindingsList } from './findings-list';
 import { GuidesList } from './guides-list';
 import { MarkCard } from './mark-card';

@@ -16,7 +16,7 @@ import { compactSelectClass, tableHeadRowClass } from '../../../components/ui/st
 import { paths } from '../../../config/paths';
 import { formatDateTime } from '../../../lib/format';
 import { useArchiveView, useProjectViews } from '../api/views';
-import { SortHeader } from './sort-header';
+import { SortHeader } from '../../../components/ui/sort-header';
 
 type Archived = ListViewsQuery['archived'];
 type SortKey = ListViewsQuery['sort'];

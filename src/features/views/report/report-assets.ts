@@ -5,9 +5,10 @@
 import interBold from '@fontsource/inter/files/inter-latin-600-normal.woff?url';
 import interRegular from '@fontsource/inter/files/inter-latin-400-normal.woff?url';
 import monoRegular from '@fontsource/jetbrains-mono/files/jetbrains-mono-latin-400-normal.woff?url';
-import { colourLut } from '../../bench/map/colour-scales';
+import { colourLut } from '../../../lib/plot/colour-scales';
 import type { DecodedSnapshot } from '../api/snapshot';
-import { mapPixels, scaleOrDefault } from '../snapshot/paint';
+import { scaleOrDefault } from '../../../lib/plot/colour-scales';
+import { mapPixels } from '../snapshot/paint';
 import type { ReportFonts } from './report-pdf';
 
 async function bytesOf(url: string): Promise<Uint8Array> {

@@ -1,5 +1,5 @@
 /** The snapshot's axes: ticks, titles and the values under the pointer, in each axis's own unit. No DOM. */
-import { niceStep, stepDecimals, ticks } from '../../bench/map/axis-ticks';
+import { niceStep, stepDecimals, ticks } from '../../../lib/plot/axis-ticks';
 
 export type AxisKind = 'time' | 'speed' | 'frequency';
 

@@ -1,11 +1,4 @@
 /** Turns the snapshot's level bytes into pixels through a colour scale's lookup table. No DOM. */
-import { colourScaleNames, type ColourScaleName } from '../../bench/map/colour-scales';
-
-export const isColourScale = (name: string): name is ColourScaleName =>
-  (colourScaleNames as readonly string[]).includes(name);
-
-/** The view's scale, or the first one when the view names a scale this client does not have. */
-export const scaleOrDefault = (name: string): ColourScaleName => (isColourScale(name) ? name : colourScaleNames[0]);
 
 /**
  * RGBA pixels, top row first. The snapshot stores row 0 at the y axis's `from` end (the bottom of the

@@ -107,3 +107,9 @@ export function colourLut(name: ColourScaleName): Uint8Array {
 }
 
 export const lutCss = (lut: Uint8Array, i: number) => `rgb(${lut[i * 3]} ${lut[i * 3 + 1]} ${lut[i * 3 + 2]})`;
+
+export const isColourScale = (name: string): name is ColourScaleName =>
+  (colourScaleNames as readonly string[]).includes(name);
+
+/** The view's scale, or the first one when the view names a scale this client does not have. */
+export const scaleOrDefault = (name: string): ColourScaleName => (isColourScale(name) ? name : colourScaleNames[0]);

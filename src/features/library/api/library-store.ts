@@ -3,10 +3,10 @@
  * databases, so listing the library never loads a file.
  */
 import { createStore, del, get, promisifyRequest, set, values, type UseStore } from 'idb-keyval';
-import type { ChannelSetup } from '../../../workers/io/channel-setup';
-import type { SpeedSource } from '../../../workers/io/speed-source';
-import type { ChannelInfo, CsvOptions, RecordingFormat } from '../../../workers/io/recording';
-import { formatMegabytes } from '../../lib/format';
+import type { ChannelSetup } from '../../../../workers/io/channel-setup';
+import type { SpeedSource } from '../../../../workers/io/speed-source';
+import type { ChannelInfo, CsvOptions, RecordingFormat } from '../../../../workers/io/recording';
+import { formatMegabytes } from '../../../lib/format';
 
 export interface LibraryEntry {
   fingerprint: string;

@@ -24,6 +24,8 @@ export default defineConfig({
     port: 5173,
     strictPort: true,
     proxy: { '/api': { target: apiTarget, changeOrigin: false } },
+    // as the server sends them: cross-origin isolated, so the Bench can share the map with its workers
+    headers: { 'Cross-Origin-Opener-Policy': 'same-origin', 'Cross-Origin-Embedder-Policy': 'require-corp' },
   },
   test: {
     root: here('.'),

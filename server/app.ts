@@ -57,6 +57,9 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
 
   app.use(
     helmet({
+      // Cross-origin isolation (with helmet's default same-origin opener policy): the Bench keeps the
+      // map's mean squares in a SharedArrayBuffer that its analysis workers read without a copy.
+      crossOriginEmbedderPolicy: { policy: 'require-corp' },
       contentSecurityPolicy: {
         useDefaults: true,
         directives: {

@@ -88,6 +88,10 @@ describe('the Bench computes the map of the open recording (browser)', () => {
     expect(await progress.count()).toBe(0);
     // computed in the analysis workers by PFFFT (WASM SIMD) with the WASM readout kernel, not a fallback
     expect(await done.getAttribute('data-engine')).toBe('pffft-simd+kernel');
+    // the page is cross-origin isolated, so the map's mean squares sit in shared memory: the speed map,
+    // the findings and the tracks read them in their workers without a copy
+    expect(await page.evaluate(() => crossOriginIsolated)).toBe(true);
+    expect(await done.getAttribute('data-shared')).toBe('true');
     expect(await map.getByLabel('Window').inputValue()).toBe('hann');
     expect(await map.getByLabel('Block size').inputValue()).toBe('8192');
     expect(await map.getByLabel('Overlap').inputValue()).toBe('0.75');

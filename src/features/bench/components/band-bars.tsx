@@ -1,6 +1,7 @@
 import { useEffect, useRef, useState, type PointerEvent } from 'react';
 import type { BandLevel } from '../analysis/spectra';
 import { ticks } from '../../../lib/plot/axis-ticks';
+import { palette } from '../../../config/theme';
 
 const labelled = new Set([31.5, 63, 125, 250, 500, 1000, 2000, 4000, 8000, 16000]);
 const shortHz = (hz: number) => (hz >= 1000 ? `${hz / 1000}k` : String(hz));
@@ -33,7 +34,7 @@ export function BandBars({ bands, unit }: { bands: BandLevel[]; unit: string }) 
       geometry.current = { left: left / dpr, barW: barW / dpr };
       const y = (v: number) => 6 * dpr + ((top - v) / (top - floor)) * plotH;
       ctx.font = `${11 * dpr}px "JetBrains Mono", ui-monospace, monospace`;
-      ctx.fillStyle = '#b6c0cf';
+      ctx.fillStyle = palette.mist[300];
       ctx.textAlign = 'right';
       ctx.textBaseline = 'middle';
       ctx.strokeStyle = 'rgba(255,255,255,0.06)';
@@ -49,12 +50,12 @@ export function BandBars({ bands, unit }: { bands: BandLevel[]; unit: string }) 
       bands.forEach((b, i) => {
         const x = left + i * barW;
         if (b.db !== null) {
-          ctx.fillStyle = i === hover ? '#f0a93e' : '#5f86b3';
+          ctx.fillStyle = i === hover ? palette.accent.DEFAULT : palette.guide.level;
           const yv = Math.max(6 * dpr, y(b.db));
           ctx.fillRect(x + barW * 0.14, yv, barW * 0.72, 6 * dpr + plotH - yv);
         }
         if (labelled.has(b.nominalHz)) {
-          ctx.fillStyle = '#8793a6';
+          ctx.fillStyle = palette.mist[500];
           ctx.fillText(shortHz(b.nominalHz), x + barW / 2, H - bottom + 4 * dpr);
         }
       });

@@ -6,6 +6,7 @@ import { useLibrary, useRemoveFromLibrary, useStorageEstimate } from '../../libr
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import { demoSetup, fetchDemoRecording, useDemoRecordings } from '../api/demo-recordings';
 import { BenchPanel } from './bench-panel';
+import { errorMessage } from '../../../lib/error-message';
 
 interface LibraryPanelProps {
   openFingerprint: string | null;
@@ -28,7 +29,7 @@ function DemoRecordings({ busy, onOpenFile }: { busy: boolean; onOpenFile: Libra
       const recording = data.find((r) => r.file === file);
       onOpenFile(await fetchDemoRecording(file), file, recording ? demoSetup(recording) : undefined);
     } catch (e) {
-      setProblem(e instanceof Error ? e.message : String(e));
+      setProblem(errorMessage(e));
     } finally {
       setFetching(null);
     }

@@ -13,6 +13,7 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
   const layout = useBench((s) => s.map.layout);
   const fsHz = useBench((s) => s.recording.decoded.header.sampleRateHz);
   const windowName = useBench((s) => s.settings.windowName);
+  const shared = useBench((s) => typeof SharedArrayBuffer !== 'undefined' && s.map.power?.power.buffer instanceof SharedArrayBuffer);
   const percent = status.kind === 'computing' || status.kind === 'cancelled' ? Math.round(status.fraction * 100) : 0;
   return (
     <div className="flex min-h-7 flex-wrap items-center gap-3 pl-16">
@@ -45,7 +46,7 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
         </>
       )}
       {status.kind === 'done' && layout && (
-        <p className="text-xs text-mist-500" data-testid="map-done" data-engine={status.engine}>
+        <p className="text-xs text-mist-500" data-testid="map-done" data-engine={status.engine} data-shared={shared}>
           {layout.frames} spectra of {fmt(layout.blockSize / fsHz, 3)} s, {windowLabel[windowName]} window.
         </p>
       )}

@@ -8,6 +8,7 @@ import { useStore } from '../session/store';
 import { BenchPanel } from './bench-panel';
 import { CsvButton, PLOT_HEIGHT, useDockInputs, type DockInputs } from './dock-inputs';
 import { plotAxis, UPlotChart } from './uplot-chart';
+import { palette, withAlpha } from '../../../config/theme';
 
 /** The frame the slice shows: under the pointer, else at the pinned time, else where the pointer last was, else mid-run. */
 function usePointedFrame(p: DockInputs) {
@@ -23,7 +24,7 @@ function usePointedFrame(p: DockInputs) {
   const t = p.pinnedTimeS ?? p.layout.t0S + ((p.layout.frames - 1) * p.layout.hopS) / 2;
   const frame = frameAt(p.layout, t);
   const rpm = p.frameRpm?.[frame] ?? NaN;
-  const column = p.against === 'speed' && p.speedRaster && Number.isFinite(rpm) ? Math.floor((rpm - p.speedRaster.raster.timeSpanS[0]) / p.speedRaster.rpmStep) : frame;
+  const column = p.against === 'speed' && p.speedRaster && Number.isFinite(rpm) ? Math.floor((rpm - p.speedRaster.raster.xSpan[0]) / p.speedRaster.rpmStep) : frame;
   return { frame, column, timeS: p.layout.t0S + frame * p.layout.hopS, rpm, from: p.pinnedTimeS !== null ? 'pinned' : 'middle of the run' };
 }
 
@@ -60,7 +61,7 @@ export function SlicePanel() {
       },
       axes: [plotAxis('Frequency (Hz)', { values: (_u, splits) => splits.map((v) => (Math.abs(v) >= 1000 ? `${Number((v / 1000).toPrecision(4))}k` : String(Number(v.toPrecision(4))))) }), plotAxis(unit, { size: 44 })],
       cursor: { drag: { x: false, y: false }, points: { size: 5 } },
-      series: [{}, { label: 'level', stroke: '#7fa7d4', width: 1, fill: 'rgba(127,167,212,0.08)', spanGaps: false }],
+      series: [{}, { label: 'level', stroke: palette.guide.order, width: 1, fill: withAlpha(palette.guide.order, 0.08), spanGaps: false }],
     }),
     [unit, p.topDb, p.rangeDb],
   );

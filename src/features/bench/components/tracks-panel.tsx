@@ -9,6 +9,7 @@ import { BenchPanel } from './bench-panel';
 import { useCursorSync } from './cursor-sync';
 import { CsvButton, PLOT_HEIGHT, useDockInputs } from './dock-inputs';
 import { plotAxis, SERIES_COLOURS, UPlotChart } from './uplot-chart';
+import { palette } from '../../../config/theme';
 
 /** The tracks of the ticked guides (the session computes them in a worker), against time or speed. */
 export function TracksPanel() {
@@ -49,7 +50,7 @@ export function TracksPanel() {
               size: 6,
               width: 1.25,
               stroke: colour,
-              fill: '#121821',
+              fill: palette.ink[900],
               // hollow markers only where another guide falls inside the band
               filter: () => crossing.flatMap((c, j) => (c ? [j] : [])),
             },

@@ -1,20 +1,21 @@
 import { useEffect, useLayoutEffect, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
+import { palette, seriesColours } from '../../../config/theme';
 
 export const plotAxis = (label: string, extra: Partial<uPlot.Axis> = {}): uPlot.Axis => ({
   label,
-  stroke: '#b6c0cf',
+  stroke: palette.mist[300],
   font: '11px "JetBrains Mono", ui-monospace, monospace',
   labelFont: '12px Inter, system-ui, sans-serif',
   labelSize: 20,
   grid: { stroke: 'rgba(255,255,255,0.06)', width: 1 },
-  ticks: { stroke: '#3b475b', width: 1, size: 4 },
+  ticks: { stroke: palette.ink[600], width: 1, size: 4 },
   ...extra,
 });
 
 /** Series colours for tracks: the accent first, then quiet ones that stay apart on the dark ground. */
-export const SERIES_COLOURS = ['#f0a93e', '#7fa7d4', '#5cc99a', '#c59ee0', '#e3d47a', '#6fc3c9', '#e48a8a', '#a9b4c4'];
+export const SERIES_COLOURS = seriesColours;
 
 /**
  * A uPlot chart that fills its box (its legend is the caller's own, in React): made once per `options` (the caller memoises them), fed new data

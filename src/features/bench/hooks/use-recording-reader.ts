@@ -5,6 +5,7 @@ import type { CsvOptions } from '../../../../workers/io/recording';
 import { DecodeFailure, decodeInWorker } from '../../../lib/workers/decode-client';
 import { useAddToLibrary } from '../../library/api/library';
 import { getEntry, getFile, type LibraryEntry } from '../../library/api/library-store';
+import { errorMessage } from '../../../lib/error-message';
 
 /** The recording on the Bench: its library entry and its decoded channels (kept in memory only). */
 export interface OpenRecording {
@@ -89,7 +90,7 @@ export function useRecordingReader(onOpened?: (entry: LibraryEntry) => void) {
       } else if (e instanceof DecodeFailure && e.code === 'CSV_NEEDS_SAMPLE_RATE' && !csv?.sampleRateHz) {
         setPrompt({ file, fileName, message: e.message });
       } else {
-        setNotice({ tone: 'error', fileName, message: e instanceof Error ? e.message : String(e) });
+        setNotice({ tone: 'error', fileName, message: errorMessage(e) });
       }
       return;
     }
@@ -101,7 +102,7 @@ export function useRecordingReader(onOpened?: (entry: LibraryEntry) => void) {
       openedRef.current?.(entry);
     } catch (e) {
       if (current.current !== job) return;
-      setNotice({ tone: 'error', message: e instanceof Error ? e.message : String(e) });
+      setNotice({ tone: 'error', message: errorMessage(e) });
     } finally {
       if (current.current === job) {
         current.current = null;

@@ -6,6 +6,7 @@
 import type { AxisTicks } from '../../../components/plot/map-axes';
 import { lutCss } from '../../../lib/plot/colour-scales';
 import { ticks } from '../../../lib/plot/axis-ticks';
+import { palette } from '../../../config/theme';
 
 export interface ComposeInput {
   map: HTMLCanvasElement;
@@ -38,27 +39,27 @@ export function composeMap(input: ComposeInput): HTMLCanvasElement {
   canvas.width = left + W + right;
   canvas.height = top + H + bottom;
   const ctx = canvas.getContext('2d')!;
-  ctx.fillStyle = '#0d1117';
+  ctx.fillStyle = palette.ink[950];
   ctx.fillRect(0, 0, canvas.width, canvas.height);
 
-  ctx.fillStyle = '#e8edf4';
+  ctx.fillStyle = palette.mist[100];
   ctx.font = `600 ${s(13)}px ${SANS}`;
   ctx.textBaseline = 'alphabetic';
   ctx.fillText(input.title, left, s(20));
-  ctx.fillStyle = '#8793a6';
+  ctx.fillStyle = palette.mist[500];
   ctx.font = `${s(11)}px ${MONO}`;
   ctx.fillText(input.subtitle, left, s(36));
 
-  ctx.fillStyle = '#0d1117';
+  ctx.fillStyle = palette.ink[950];
   ctx.fillRect(left, top, W, H);
   ctx.drawImage(map, left, top);
   ctx.drawImage(guides, left, top);
-  ctx.strokeStyle = '#2a3445';
+  ctx.strokeStyle = palette.ink[700];
   ctx.lineWidth = 1;
   ctx.strokeRect(left - 0.5, top - 0.5, W + 1, H + 1);
 
-  ctx.fillStyle = '#b6c0cf';
-  ctx.strokeStyle = '#3b475b';
+  ctx.fillStyle = palette.mist[300];
+  ctx.strokeStyle = palette.ink[600];
   ctx.font = `${s(11)}px ${MONO}`;
   ctx.textAlign = 'right';
   ctx.textBaseline = 'middle';
@@ -80,7 +81,7 @@ export function composeMap(input: ComposeInput): HTMLCanvasElement {
     ctx.stroke();
     ctx.fillText(t.label, x, top + H + s(9));
   }
-  ctx.fillStyle = '#8793a6';
+  ctx.fillStyle = palette.mist[500];
   ctx.font = `${s(12)}px ${SANS}`;
   ctx.fillText(input.bottom.title, left + W / 2, top + H + s(26));
   ctx.save();
@@ -97,9 +98,9 @@ export function composeMap(input: ComposeInput): HTMLCanvasElement {
   for (let i = 0; i <= 16; i++) grad.addColorStop(i / 16, lutCss(input.lut, Math.round((i * 255) / 16)));
   ctx.fillStyle = grad;
   ctx.fillRect(bx, top, bw, H);
-  ctx.strokeStyle = '#2a3445';
+  ctx.strokeStyle = palette.ink[700];
   ctx.strokeRect(bx - 0.5, top - 0.5, bw + 1, H + 1);
-  ctx.fillStyle = '#b6c0cf';
+  ctx.fillStyle = palette.mist[300];
   ctx.font = `${s(11)}px ${MONO}`;
   ctx.textAlign = 'left';
   ctx.textBaseline = 'middle';
@@ -108,7 +109,7 @@ export function composeMap(input: ComposeInput): HTMLCanvasElement {
     const y = top + ((input.topDb - v) / input.rangeDb) * H;
     ctx.fillText(Number.isInteger(v) ? String(v) : v.toFixed(1), bx + bw + s(5), y);
   }
-  ctx.fillStyle = '#8793a6';
+  ctx.fillStyle = palette.mist[500];
   ctx.font = `${s(11)}px ${SANS}`;
   ctx.textBaseline = 'bottom';
   ctx.fillText(input.scaleLabel, left + W + s(8), top - s(6));

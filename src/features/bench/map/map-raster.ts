@@ -6,8 +6,24 @@
  * gain (IEC 61672-1 via weightingGainsPower), ref the level reference (ISO 1683). No DOM here.
  */
 import type { StftLayout } from '../../../../workers/dsp/stft';
-import { frameTimeS } from '../../../../workers/dsp/stft';
 import { weightingGainsPower, type Weighting } from '../../../../workers/dsp/weighting';
+
+/**
+ * The grid a map's levels come on: one input column per step along x (a frame of the STFT against time,
+ * an rpm bin against speed), one row per frequency bin.
+ */
+export interface RasterGrid {
+  /** Input columns */
+  columns: number;
+  /** x of column 0's centre, and the step between columns (s against time, rpm against speed) */
+  x0: number;
+  xStep: number;
+  bins: number;
+  binHz: number;
+}
+
+/** The grid of an STFT's frames against time. */
+export const timeGrid = (l: StftLayout): RasterGrid => ({ columns: l.frames, x0: l.t0S, xStep: l.hopS, bins: l.bins, binHz: l.binHz });
 
 export const MAX_ROWS = 2048;
 export const MAX_COLUMNS = 16384;
@@ -30,26 +46,26 @@ export class MapRaster {
   private readonly listeners = new Set<RasterListener>();
 
   constructor(
-    readonly layout: StftLayout,
+    readonly grid: RasterGrid,
     weighting: Weighting,
     readonly refRms: number,
   ) {
-    this.framesPerColumn = Math.max(1, Math.ceil(layout.frames / MAX_COLUMNS));
-    this.binsPerRow = Math.max(1, Math.ceil(layout.bins / MAX_ROWS));
-    this.columns = Math.ceil(layout.frames / this.framesPerColumn);
-    this.rows = Math.ceil(layout.bins / this.binsPerRow);
+    this.framesPerColumn = Math.max(1, Math.ceil(grid.columns / MAX_COLUMNS));
+    this.binsPerRow = Math.max(1, Math.ceil(grid.bins / MAX_ROWS));
+    this.columns = Math.ceil(grid.columns / this.framesPerColumn);
+    this.rows = Math.ceil(grid.bins / this.binsPerRow);
     this.levels = new Float32Array(this.columns * this.rows).fill(-Infinity);
-    const freqHz = new Float64Array(layout.bins);
-    for (let k = 0; k < layout.bins; k++) freqHz[k] = k * layout.binHz;
+    const freqHz = new Float64Array(grid.bins);
+    for (let k = 0; k < grid.bins; k++) freqHz[k] = k * grid.binHz;
     const gains = weightingGainsPower(weighting, freqHz);
-    this.factor = new Float64Array(layout.bins);
+    this.factor = new Float64Array(grid.bins);
     const invRef2 = 1 / (refRms * refRms);
-    for (let k = 0; k < layout.bins; k++) this.factor[k] = gains[k] * invRef2;
+    for (let k = 0; k < grid.bins; k++) this.factor[k] = gains[k] * invRef2;
   }
 
   /** Takes frames [from, to) of mean-square powers ((to − from) × bins) and tells the listeners. */
   add(from: number, to: number, power: Float32Array) {
-    const { bins } = this.layout;
+    const { bins } = this.grid;
     const { rows, binsPerRow, framesPerColumn, factor, levels } = this;
     let peak = 0;
     for (let f = from; f < to; f++) {
@@ -70,7 +86,7 @@ export class MapRaster {
     if (peak > 0) this.maxDb = Math.max(this.maxDb, 10 * Math.log10(peak));
     const c0 = Math.floor(from / framesPerColumn);
     const c1 = Math.ceil(to / framesPerColumn);
-    this.columnsDone = Math.max(this.columnsDone, to === this.layout.frames ? this.columns : Math.floor(to / framesPerColumn));
+    this.columnsDone = Math.max(this.columnsDone, to === this.grid.columns ? this.columns : Math.floor(to / framesPerColumn));
     for (const l of this.listeners) l(c0, c1);
   }
 
@@ -79,33 +95,33 @@ export class MapRaster {
     return () => this.listeners.delete(listener);
   }
 
-  /** Time of the left edge of column 0 and the right edge of the last column, s */
-  get timeSpanS(): [number, number] {
-    const { t0S, hopS } = this.layout;
-    return [t0S - hopS / 2, t0S + (this.columns * this.framesPerColumn - 0.5) * hopS];
+  /** x of the left edge of column 0 and the right edge of the last column (s, or rpm) */
+  get xSpan(): [number, number] {
+    const { x0, xStep } = this.grid;
+    return [x0 - xStep / 2, x0 + (this.columns * this.framesPerColumn - 0.5) * xStep];
   }
 
   /** Frequency of the bottom edge of row 0 and the top edge of the last row, Hz */
   get frequencySpanHz(): [number, number] {
-    const { binHz } = this.layout;
+    const { binHz } = this.grid;
     return [-binHz / 2, (this.rows * this.binsPerRow - 0.5) * binHz];
   }
 
   /**
-   * What lies under a point given as fractions of the map's width and height (y up): the time of the
-   * frame, the frequency of the bin and the level of its cell, or null off the map or where nothing
-   * is computed yet.
+   * What lies under a point given as fractions of the map's width and height (y up): the x of the
+   * input column (time or speed), the frequency of the bin and the level of its cell, or null off the
+   * map or where nothing is computed yet.
    */
-  probe(fx: number, fy: number): { timeS: number; frequencyHz: number; levelDb: number } | null {
+  probe(fx: number, fy: number): { x: number; frequencyHz: number; levelDb: number } | null {
     if (!(fx >= 0 && fx < 1 && fy >= 0 && fy < 1)) return null;
     const u = fx * this.columns;
     const c = Math.min(this.columns - 1, Math.floor(u));
     const [f0, f1] = this.frequencySpanHz;
-    const bin = Math.min(this.layout.bins - 1, Math.max(0, Math.round((f0 + fy * (f1 - f0)) / this.layout.binHz)));
+    const bin = Math.min(this.grid.bins - 1, Math.max(0, Math.round((f0 + fy * (f1 - f0)) / this.grid.binHz)));
     const r = Math.floor(bin / this.binsPerRow);
     const levelDb = this.levels[c * this.rows + r];
     if (levelDb === -Infinity && c >= this.columnsDone) return null;
-    const frame = Math.min(this.layout.frames - 1, Math.floor(u * this.framesPerColumn));
-    return { timeS: frameTimeS(this.layout, frame), frequencyHz: bin * this.layout.binHz, levelDb };
+    const column = Math.min(this.grid.columns - 1, Math.floor(u * this.framesPerColumn));
+    return { x: this.grid.x0 + column * this.grid.xStep, frequencyHz: bin * this.grid.binHz, levelDb };
   }
 }

@@ -13,7 +13,7 @@ export function paintLevels(canvas: HTMLCanvasElement, image: MapImage | null, r
   ctx.setTransform(1, 0, 0, 1, 0, 0);
   ctx.clearRect(0, 0, canvas.width, canvas.height);
   if (!image || !view || !raster) return;
-  const [X0, X1] = raster.timeSpanS;
+  const [X0, X1] = raster.xSpan;
   const [F0, F1] = raster.frequencySpanHz;
   const W = canvas.width;
   const H = canvas.height;

@@ -1,6 +1,6 @@
 /**
  * The map against speed as a MapRaster, so it paints, probes and zooms like the map against time: its
- * columns are rpm bins (the layout's "time" is rpm, its "hop" the rpm step). An rpm bin that no frame
+ * columns are rpm bins (its grid's x is rpm, its step the rpm step). An rpm bin that no frame
  * fell in shows its nearest filled neighbour within a few bins (a fast run-up skips bins), else
  * nothing.
  */
@@ -59,8 +59,7 @@ export function speedRaster(map: SpeedMap, layout: StftLayout, rpmStep: number, 
     if (shown[i] < 0) filled.fill(NaN, i * bins, (i + 1) * bins);
     else filled.set(map.power.subarray(shown[i] * bins, (shown[i] + 1) * bins), i * bins);
   }
-  const speedLayout: StftLayout = { ...layout, frames: n, t0S: map.rpm[0], hopS: rpmStep };
-  const raster = new MapRaster(speedLayout, weighting, refRms);
+  const raster = new MapRaster({ columns: n, x0: map.rpm[0], xStep: rpmStep, bins: layout.bins, binHz: layout.binHz }, weighting, refRms);
   raster.add(0, n, filled);
   return { raster, map, rpmStep, shown };
 }

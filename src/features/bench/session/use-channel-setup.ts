@@ -1,6 +1,7 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import { useUpdateSetup } from '../../library/api/library';
+import { errorMessage } from '../../../lib/error-message';
 
 export type SaveState = { kind: 'saved' } | { kind: 'pending' } | { kind: 'failed'; message: string };
 
@@ -28,7 +29,7 @@ export function useChannelSetup(fingerprint: string, initial: ChannelSetup[]) {
     unsaved.current = null;
     mutateRef.current({ fingerprint, setup: next }).then(
       () => mounted.current && !unsaved.current && setSaveState({ kind: 'saved' }),
-      (e: unknown) => mounted.current && setSaveState({ kind: 'failed', message: e instanceof Error ? e.message : String(e) }),
+      (e: unknown) => mounted.current && setSaveState({ kind: 'failed', message: errorMessage(e) }),
     );
   }, [fingerprint]);
 

@@ -2,7 +2,8 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import type { StftLayout, StftSettings } from '../../../../workers/dsp/stft';
 import type { Weighting } from '../../../../workers/dsp/weighting';
 import { startMap, type MapJob } from '../../../lib/workers/analysis-pool';
-import { MapRaster } from '../map/map-raster';
+import { MapRaster, timeGrid } from '../map/map-raster';
+import { errorMessage } from '../../../lib/error-message';
 
 export interface MapRequest {
   samples: Float32Array | null;
@@ -23,6 +24,14 @@ export type MapStatus =
   | { kind: 'error'; message: string };
 
 const PROGRESS_EVERY_MS = 150;
+
+/**
+ * The map's mean squares: in shared memory when the page is cross-origin isolated (the server sends the
+ * headers), so the analysis workers read the one copy; else in the page's own memory (each task copies).
+ */
+function powerArray(length: number): Float32Array {
+  return globalThis.crossOriginIsolated && typeof SharedArrayBuffer !== 'undefined' ? new Float32Array(new SharedArrayBuffer(length * 4)) : new Float32Array(length);
+}
 
 /** Beyond this the mean squares are not kept (only the painted levels): tracks and findings need them. */
 const MAX_POWER_BYTES = 768 * 1024 * 1024;
@@ -93,13 +102,13 @@ export function useMapComputation(req: MapRequest) {
       setRaster(null);
       setLayout(null);
       setPower(null);
-      setStatus({ kind: 'error', message: e instanceof Error ? e.message : String(e) });
+      setStatus({ kind: 'error', message: errorMessage(e) });
       return;
     }
     job.current = current;
     const l = current.layout;
-    r = l.frames > 0 ? new MapRaster(l, weighting, refRms) : null;
-    store = l.frames > 0 && l.frames * l.bins * 4 <= MAX_POWER_BYTES ? { layout: l, power: new Float32Array(l.frames * l.bins), frames: 0 } : null;
+    r = l.frames > 0 ? new MapRaster(timeGrid(l), weighting, refRms) : null;
+    store = l.frames > 0 && l.frames * l.bins * 4 <= MAX_POWER_BYTES ? { layout: l, power: powerArray(l.frames * l.bins), frames: 0 } : null;
     setRaster(r);
     setLayout(l);
     setPower(store);
@@ -110,7 +119,7 @@ export function useMapComputation(req: MapRequest) {
       (e: unknown) => {
         if (job.current !== current) return;
         if (e instanceof Error && e.name === 'AbortError') setStatus({ kind: 'cancelled', fraction: fraction.current });
-        else setStatus({ kind: 'error', message: e instanceof Error ? e.message : String(e) });
+        else setStatus({ kind: 'error', message: errorMessage(e) });
       },
     );
     return () => {

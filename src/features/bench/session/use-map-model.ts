@@ -22,7 +22,7 @@ const validScale = (v: number) => Number.isFinite(v) && v !== 0;
 
 function extentsOf(raster: MapRaster, minX: number): Extents {
   const [f0, f1] = raster.frequencySpanHz;
-  return { x: raster.timeSpanS, f: [f0, f1], minX, minF: 8 * raster.layout.binHz * raster.binsPerRow };
+  return { x: raster.xSpan, f: [f0, f1], minX, minF: 8 * raster.grid.binHz * raster.binsPerRow };
 }
 
 /**

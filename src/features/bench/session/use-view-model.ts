@@ -105,17 +105,17 @@ export function useViewModel(inp: ViewInputs) {
   const probe = useCallback(
     (x: number, f: number): BenchPointer | null => {
       if (!raster || !layout) return null;
-      const [X0, X1] = raster.timeSpanS;
+      const [X0, X1] = raster.xSpan;
       const [F0, F1] = raster.frequencySpanHz;
       const hit = raster.probe((x - X0) / (X1 - X0), (f - F0) / (F1 - F0));
       if (!hit) return null;
       const column = Math.min(raster.columns - 1, Math.floor(((x - X0) / (X1 - X0)) * raster.columns));
       if (against === 'speed' && frameRpm) {
-        const frame = frameAtRpm(frameRpm, hit.timeS);
-        return { x, f, timeS: layout.t0S + frame * layout.hopS, rpm: hit.timeS, levelDb: hit.levelDb, frame, column, from: 'map' };
+        const frame = frameAtRpm(frameRpm, hit.x);
+        return { x, f, timeS: layout.t0S + frame * layout.hopS, rpm: hit.x, levelDb: hit.levelDb, frame, column, from: 'map' };
       }
-      const frame = frameAt(layout, hit.timeS);
-      return { x, f, timeS: hit.timeS, rpm: frameRpm?.[frame] ?? NaN, levelDb: hit.levelDb, frame, column, from: 'map' };
+      const frame = frameAt(layout, hit.x);
+      return { x, f, timeS: hit.x, rpm: frameRpm?.[frame] ?? NaN, levelDb: hit.levelDb, frame, column, from: 'map' };
     },
     [raster, layout, against, frameRpm],
   );

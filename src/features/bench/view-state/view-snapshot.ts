@@ -74,7 +74,7 @@ export function quantiseVisible(
   rangeDb: number,
 ): { width: number; height: number; map: Uint8Array } {
   const { columns, rows, levels } = raster;
-  const [X0, X1] = raster.timeSpanS;
+  const [X0, X1] = raster.xSpan;
   const [F0, F1] = raster.frequencySpanHz;
   const cells = (lo: number, hi: number, e0: number, e1: number, n: number): [number, number] => {
     const a = Math.max(0, Math.min(n - 1, Math.floor(((lo - e0) / (e1 - e0)) * n)));

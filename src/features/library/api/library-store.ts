@@ -7,6 +7,7 @@ import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import type { SpeedSource } from '../../../../workers/io/speed-source';
 import type { ChannelInfo, CsvOptions, RecordingFormat } from '../../../../workers/io/recording';
 import { formatMegabytes } from '../../../lib/format';
+import { errorMessage } from '../../../lib/error-message';
 
 export interface LibraryEntry {
   fingerprint: string;
@@ -151,6 +152,6 @@ export function isQuotaError(e: unknown, depth = 0): boolean {
 }
 
 function describe(e: unknown): string {
-  const message = e instanceof Error ? e.message : String(e);
+  const message = errorMessage(e);
   return message.endsWith('.') ? message : `${message}.`;
 }

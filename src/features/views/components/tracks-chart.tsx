@@ -1,8 +1,9 @@
 import type { SnapshotHeader } from '../../../../workers/io/snapshot-format';
 import { ticks } from '../../../lib/plot/axis-ticks';
 import { axisTicks, axisTitle, fractionOf, type AxisSpec } from '../snapshot/axes';
+import { palette, seriesColours } from '../../../config/theme';
 
-const COLOURS = ['#f0a93e', '#8fb8de', '#5cc99a', '#d59bc4', '#b6c0cf', '#e07a5f'];
+const COLOURS = seriesColours;
 const W = 600;
 const H = 150;
 
@@ -57,7 +58,7 @@ export function TracksChart({ tracks, xAxis }: { tracks: Track[]; xAxis: AxisSpe
             <rect x={0} y={0} width={W} height={H} />
           </clipPath>
           {ticks(lo, hi, 4).map((v) => (
-            <line key={v} x1={0} x2={W} y1={yOf(v)} y2={yOf(v)} stroke="#2a3445" vectorEffect="non-scaling-stroke" />
+            <line key={v} x1={0} x2={W} y1={yOf(v)} y2={yOf(v)} stroke={palette.ink[700]} vectorEffect="non-scaling-stroke" />
           ))}
           <g clipPath="url(#tracks-clip)">
             {tracks.map((t, i) => (

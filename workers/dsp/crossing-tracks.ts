@@ -20,17 +20,23 @@ export interface CrossingOptions {
   bandwidthHz?: number;
 }
 
+/** A guide with the context its frequency is taken in (each carrier guide may have its own carrier). */
+export interface CrossingGuide {
+  guide: Guide;
+  ctx: GuideContext;
+}
+
 /**
  * Replaces the level of every crossing frame of every track with the filter's, in place.
  * @param x      the channel's samples (the map's own), unit U
+ * @param guides one per track
  * @param tracks one per guide, as trackGuide made them on `layout`
  * @returns per track, 1 where the level came from the filter
  */
 export function resolveCrossings(
   x: Float32Array,
   layout: StftLayout,
-  ctx: GuideContext,
-  guides: Guide[],
+  guides: CrossingGuide[],
   tracks: Track[],
   opts: CrossingOptions = {},
 ): Uint8Array[] {
@@ -44,7 +50,7 @@ export function resolveCrossings(
     if (!any[f]) continue;
     let g = f;
     while (g + 1 < frames && any[g + 1]) g++;
-    resolveStretch(x, layout, ctx, guides, tracks, served, f, g, padFrames, bandwidthHz);
+    resolveStretch(x, layout, guides, tracks, served, f, g, padFrames, bandwidthHz);
     f = g;
   }
   return served;
@@ -53,8 +59,7 @@ export function resolveCrossings(
 function resolveStretch(
   x: Float32Array,
   layout: StftLayout,
-  ctx: GuideContext,
-  guides: Guide[],
+  guides: CrossingGuide[],
   tracks: Track[],
   served: Uint8Array[],
   f0: number,
@@ -91,8 +96,8 @@ function resolveStretch(
       const pos = Math.max(0, Math.min(layout.frames - 1, ((s0 + s) / fsHz - layout.t0S) / layout.hopS));
       const fa = Math.floor(pos);
       const fb = Math.min(layout.frames - 1, fa + 1);
-      const ha = guideHz(guides[i], ctx, fa);
-      const hb = guideHz(guides[i], ctx, fb);
+      const ha = guideHz(guides[i].guide, guides[i].ctx, fa);
+      const hb = guideHz(guides[i].guide, guides[i].ctx, fb);
       const v = ha + (hb - ha) * (pos - fa);
       out[s] = Number.isFinite(v) && v > 0 ? v : 0;
     }

@@ -118,7 +118,7 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   // per-frame tracks of every guide; where guides cross and the samples are at hand, the coupled
   // Vold–Kalman filter gives each its own level there (crossing-tracks.ts)
   const frameTracks = all.map((g) => trackGuide(power, layout, g, ctx, trackOpts));
-  const served = input.samples ? resolveCrossings(input.samples, layout, ctx, all, frameTracks) : undefined;
+  const served = input.samples ? resolveCrossings(input.samples, layout, all.map((guide) => ({ guide, ctx })), frameTracks) : undefined;
   const speedTrack = (i: number) => trackAgainstSpeed(frameTracks[i], frameRpm, rpmStep, served?.[i]);
   const orders = orderGuides.map((_, i) => {
     const t = speedTrack(i);

@@ -94,13 +94,23 @@ export function bandLevels(avg: Float64Array, layout: StftLayout, gains: Float64
 }
 
 /** Tracks on one x grid for a plot and a table: time frames as they are, rpm bins merged by bin. */
-export function alignTracks(series: GuideTrack[], against: 'time' | 'speed', rpmStep: number): { x: number[]; rows: (number | null)[][]; crossing: boolean[][] } {
-  if (series.length === 0) return { x: [], rows: [], crossing: [] };
+export interface AlignedTracks {
+  x: number[];
+  rows: (number | null)[][];
+  /** Another line inside the band there */
+  crossing: boolean[][];
+  /** The level came from the Vold–Kalman filter there */
+  filtered: boolean[][];
+}
+
+export function alignTracks(series: GuideTrack[], against: 'time' | 'speed', rpmStep: number): AlignedTracks {
+  if (series.length === 0) return { x: [], rows: [], crossing: [], filtered: [] };
   if (against === 'time') {
     return {
       x: Array.from(series[0].x),
       rows: series.map((s) => Array.from(s.db, (v) => (Number.isFinite(v) ? v : null))),
       crossing: series.map((s) => Array.from(s.crossing, (c) => c === 1)),
+      filtered: series.map((s) => Array.from(s.filtered, (c) => c === 1)),
     };
   }
   const keys = new Map<number, number>();
@@ -110,12 +120,14 @@ export function alignTracks(series: GuideTrack[], against: 'time' | 'speed', rpm
   const x = order.map((k) => keys.get(k)!);
   const rows = series.map(() => new Array<number | null>(order.length).fill(null));
   const crossing = series.map(() => new Array<boolean>(order.length).fill(false));
+  const filtered = series.map(() => new Array<boolean>(order.length).fill(false));
   series.forEach((s, j) =>
     s.x.forEach((r, i) => {
       const idx = at.get(Math.floor(r / rpmStep))!;
       rows[j][idx] = Number.isFinite(s.db[i]) ? s.db[i] : null;
       crossing[j][idx] = s.crossing[i] === 1;
+      filtered[j][idx] = s.filtered[i] === 1;
     }),
   );
-  return { x, rows, crossing };
+  return { x, rows, crossing, filtered };
 }

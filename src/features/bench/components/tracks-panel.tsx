@@ -39,7 +39,8 @@ export function TracksPanel() {
         {},
         ...tracks.series.map((s, i) => {
           const colour = SERIES_COLOURS[i % SERIES_COLOURS.length];
-          const crossing = tracks.aligned.crossing[i];
+          // a sum where another guide is inside the band and the filter did not separate them
+          const summed = tracks.aligned.crossing[i].map((c, j) => c && !tracks.aligned.filtered[i][j]);
           return {
             label: tracks.names.get(s.line.id) ?? s.line.label,
             stroke: colour,
@@ -52,7 +53,7 @@ export function TracksPanel() {
               stroke: colour,
               fill: palette.ink[900],
               // hollow markers only where another guide falls inside the band
-              filter: () => crossing.flatMap((c, j) => (c ? [j] : [])),
+              filter: () => summed.flatMap((c, j) => (c ? [j] : [])),
             },
           } satisfies uPlot.Series;
         }),
@@ -65,22 +66,23 @@ export function TracksPanel() {
 
   const exportCsv = () => {
     if (!tracks) return;
-    const { x, rows, crossing } = tracks.aligned;
+    const { x, rows, crossing, filtered } = tracks.aligned;
     const header = [against === 'time' ? 'time (s)' : 'speed (rpm)', ...(against === 'time' && p.frameRpm ? ['speed (rpm)'] : [])];
     for (const s of tracks.series) {
       const name = tracks.names.get(s.line.id) ?? s.line.label;
-      header.push(`${name} level (${unit})`, `${name} crossing`);
+      header.push(`${name} level (${unit})`, `${name} crossing`, `${name} filtered`);
     }
     const out = x.map((xv, j) => {
       const row: (string | number | null)[] = [round(xv, against === 'time' ? 4 : 1)];
       if (against === 'time' && p.frameRpm) row.push(round(p.frameRpm[j], 1));
-      rows.forEach((r, i) => row.push(r[j] === null ? null : round(r[j]!, 2), crossing[i][j] ? 1 : 0));
+      rows.forEach((r, i) => row.push(r[j] === null ? null : round(r[j]!, 2), crossing[i][j] ? 1 : 0, filtered[i][j] ? 1 : 0));
       return row;
     });
     downloadCsv(csvText(header, out), `${baseName(p.recordingName)}-tracks.csv`);
   };
 
-  const crossings = tracks ? tracks.aligned.crossing.some((c) => c.some(Boolean)) : false;
+  const crossings = tracks ? tracks.aligned.crossing.some((c, i) => c.some((v, j) => v && !tracks.aligned.filtered[i][j])) : false;
+  const separated = tracks ? tracks.aligned.filtered.some((c) => c.some(Boolean)) : false;
   return (
     <BenchPanel
       title="Tracks"
@@ -116,6 +118,11 @@ export function TracksPanel() {
             <span className="ml-auto text-mist-500">
               <span className="mr-1 inline-block h-2 w-2 rounded-full border border-mist-300 align-middle" aria-hidden />
               another guide inside the band: the level is a sum there
+            </span>
+          )}
+          {separated && (
+            <span className={`${crossings ? '' : 'ml-auto '}text-mist-500`} data-testid="tracks-filtered">
+              where guides cross, each level is separated by the Vold–Kalman filter
             </span>
           )}
         </div>

@@ -33,6 +33,7 @@ function useBenchModel(recording: OpenRecording, fromView: ViewOnBench | undefin
       reference: m.reference,
       channelSetup: m.channelSetup,
       typedPoles: inputs.state.typedPoles,
+      mapChannel: m.mapChannel,
     },
     restore,
   );

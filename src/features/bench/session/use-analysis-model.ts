@@ -21,6 +21,8 @@ export interface AnalysisInputs {
   reference: LevelReference;
   channelSetup: ChannelSetup | undefined;
   typedPoles: number | null;
+  /** The map channel's samples and calibration: the tracks filter the crossings from them */
+  mapChannel: { samples: Float32Array | null; scale: number };
 }
 
 /** The guides, the inverter findings, the lines the guides resolve to, their tracks, and the tonality. */
@@ -60,6 +62,7 @@ export function useAnalysisModel(inp: AnalysisInputs, restore: BenchRestore | un
     rpmStep: inp.rpmStep,
     weighting: inp.settings.weighting,
     refRms: inp.reference.refRms,
+    channel: inp.mapChannel,
   });
 
   // The carrier tones' tonality at a moment, as the batch CLI judges it (`analyze inverter --at`)

@@ -146,12 +146,20 @@ export interface GuideTracksInput {
   rpmStep: number;
   weighting: Weighting;
   refRms: number;
+  /** The map channel's samples as read and their calibration: crossing points are filtered from them */
+  channel: { samples: Float32Array | null; scale: number };
 }
 
-/** The tracks of the selected guides (guideTracks in a worker), recomputed a moment after a change. */
+/** The map channel in its units, for the Vold–Kalman filter at crossings (a copy: it is sent to the worker). */
+const calibrated = (c: { samples: Float32Array | null; scale: number }) => (c.samples ? Float32Array.from(c.samples, (v) => v * c.scale) : undefined);
+
+/**
+ * The tracks of the selected guides (guideTracks in a worker, crossings filtered from the samples),
+ * recomputed a moment after a change.
+ */
 export function useGuideTracks(input: GuideTracksInput): TaskState<GuideTrack[]> {
   const [state, setState] = useState<TaskState<GuideTrack[]>>({ kind: 'idle' });
-  const { power, ready, lines, shown, window, enbwBins, against, frameRpm, rpmStep, weighting, refRms } = input;
+  const { power, ready, lines, shown, window, enbwBins, against, frameRpm, rpmStep, weighting, refRms, channel } = input;
   useEffect(() => {
     if (!ready || !power || lines.length === 0) {
       setState({ kind: 'idle' });
@@ -164,10 +172,11 @@ export function useGuideTracks(input: GuideTracksInput): TaskState<GuideTrack[]>
       const j = runTask(
         'tracks',
         (remote) => {
-          const { req, transfer } = withPower<GuideTracksRequest>(base, power.power);
+          const samples = calibrated(channel);
+          const { req, transfer } = withPower<GuideTracksRequest>({ ...base, samples }, power.power, samples ? [samples.buffer as ArrayBuffer] : []);
           return remote.tracks(Comlink.transfer(req, transfer));
         },
-        () => guideTracks({ ...base, power: power.power }),
+        () => guideTracks({ ...base, power: power.power, samples: calibrated(channel) }),
       );
       job = j;
       j.promise.then(
@@ -179,6 +188,6 @@ export function useGuideTracks(input: GuideTracksInput): TaskState<GuideTrack[]>
       clearTimeout(timer);
       job?.cancel();
     };
-  }, [power, ready, lines, shown, window, enbwBins, against, frameRpm, rpmStep, weighting, refRms]);
+  }, [power, ready, lines, shown, window, enbwBins, against, frameRpm, rpmStep, weighting, refRms, channel]);
   return state;
 }

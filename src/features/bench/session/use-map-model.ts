@@ -50,6 +50,8 @@ export function useMapModel(recording: OpenRecording, setup: ChannelSetup[], spe
     refRms: reference.refRms,
   });
   const { layout } = map;
+  /** The map channel's samples as read, and the calibration the map took (units per file unit) */
+  const mapChannel = useMemo(() => ({ samples: tooShort || !validScale(scale) ? null : samples, scale }), [tooShort, scale, samples]);
   const done = map.status.kind === 'done';
   const enbwBins = useMemo(() => makeWindow(settings.windowName, settings.blockSize).enbwBins, [settings.windowName, settings.blockSize]);
 
@@ -85,6 +87,7 @@ export function useMapModel(recording: OpenRecording, setup: ChannelSetup[], spe
       reference,
       enbwBins,
       map: { raster: map.raster, layout, status: map.status, power: map.power, done },
+      mapChannel,
       topDb,
       manualTop,
       rangeDb,

@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { MIN_BLOCK, stftLayout } from '../../../../workers/dsp/stft';
 import type { WindowName } from '../../../../workers/dsp/window';
 import type { Weighting } from '../../../../workers/dsp/weighting';
@@ -47,8 +47,13 @@ export function useMapSettings(frames: number, setup: ChannelSetup[], initial?: 
   const [topText, setTopText] = useState<string | null>(initial ? String(initial.topDb) : null);
   const [rangeText, setRangeText] = useState(String(initial?.rangeDb ?? DEFAULT_RANGE_DB));
   const [colours, setColours] = useState<ColourScaleName>(initial?.colours ?? 'ember');
+  // one object while nothing changes, so what reads it re-renders only for a change
+  const settings = useMemo(
+    () => ({ channel, windowName, blockSize, overlap, weighting, topText, rangeText, colours }),
+    [channel, windowName, blockSize, overlap, weighting, topText, rangeText, colours],
+  );
   return {
-    settings: { channel, windowName, blockSize, overlap, weighting, topText, rangeText, colours },
+    settings,
     setters: { setChannel, setWindowName, setBlockSize, setOverlap, setWeighting, setTopText, setRangeText, setColours },
   };
 }

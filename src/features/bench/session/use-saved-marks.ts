@@ -28,6 +28,7 @@ export function useSavedMarksOnMap(fromView: ViewOnBench | undefined, against: '
     });
     return out;
   }, [marks, against, savedAgainst, savedSwapped]);
-  return { marks: marks ?? [], onMap, isPending: fromView !== undefined && query.isPending, error: query.error };
+  const isPending = fromView !== undefined && query.isPending;
+  return useMemo(() => ({ marks: marks ?? [], onMap, isPending, error: query.error }), [marks, onMap, isPending, query.error]);
 }
 

@@ -6,6 +6,7 @@
 import { readRecordingHeader } from '../../workers/io/decode-recording';
 import { RecordingError } from '../../workers/io/recording-error';
 import { SpeedError } from '../../workers/dsp/speed';
+import { compareCommand } from './commands/compare';
 import { extractCommand } from './commands/extract';
 import { inverterCommand } from './commands/inverter';
 import { levelsCommand } from './commands/levels';
@@ -16,7 +17,7 @@ import { openFileSource } from './node-file-source';
 import { reportWarnings } from './recording-input';
 import { Options, parseArgs, UsageError } from './options';
 
-const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter|extract FILE [options] (see the README, "Batch mode")';
+const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter|extract FILE [options], or compare FILE_A FILE_B [FILE…] [options] (see the README, "Batch mode")';
 
 async function info(file: string) {
   const source = await openFileSource(file);
@@ -47,10 +48,15 @@ const commands: Record<string, (file: string, o: Options) => Promise<unknown>> =
 
 export async function main(argv: string[]): Promise<number> {
   try {
-    const parsed = parseArgs(argv, USAGE);
+    const parsed = parseArgs(argv, USAGE, (command) => command === 'compare');
+    const options = new Options(parsed.options, parsed.sequence);
+    if (parsed.command === 'compare') {
+      process.stdout.write(`${JSON.stringify(await compareCommand(parsed.files, options))}\n`);
+      return 0;
+    }
     const run = commands[parsed.command];
     if (!run) throw new UsageError(`Unknown command "${parsed.command}". ${USAGE}`);
-    process.stdout.write(`${JSON.stringify(await run(parsed.file, new Options(parsed.options, parsed.sequence)))}\n`);
+    process.stdout.write(`${JSON.stringify(await run(parsed.file, options))}\n`);
     return 0;
   } catch (e) {
     if (e instanceof RecordingError || e instanceof UsageError || e instanceof SpeedError || e instanceof RangeError) {

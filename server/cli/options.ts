@@ -5,12 +5,14 @@ export class UsageError extends Error {}
 
 export interface Parsed {
   command: string;
+  /** The first FILE, and all of them (only compare takes several) */
   file: string;
+  files: string[];
   options: Record<string, string | true>;
   sequence: [string, string | true][];
 }
 
-export function parseArgs(argv: string[], usage: string): Parsed {
+export function parseArgs(argv: string[], usage: string, many = (_command: string) => false): Parsed {
   const [command, ...rest] = argv;
   if (!command) throw new UsageError(`Name a command. ${usage}`);
   const positional: string[] = [];
@@ -32,10 +34,10 @@ export function parseArgs(argv: string[], usage: string): Parsed {
       }
     } else positional.push(a);
   }
-  if (positional.length !== 1) throw new UsageError(`Give exactly one FILE. ${usage}`);
+  if (many(command) ? positional.length < 1 : positional.length !== 1) throw new UsageError(`Give ${many(command) ? 'the FILEs' : 'exactly one FILE'}. ${usage}`);
   // npm runs scripts from the package folder; a relative path means the caller's folder.
-  const file = path.resolve(process.env.INIT_CWD ?? process.cwd(), positional[0]);
-  return { command, file, options, sequence };
+  const files = positional.map((p) => path.resolve(process.env.INIT_CWD ?? process.cwd(), p));
+  return { command, file: files[0], files, options, sequence };
 }
 
 export class Options {

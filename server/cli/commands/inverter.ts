@@ -6,9 +6,9 @@
  * threshold). --quantity (acceleration, velocity, sound-pressure, voltage, other) says which family
  * pattern the channel carries, to settle pole pairs that one sideband pair leaves between two answers.
  */
-import { analyseInverter, patternOfQuantity, type InverterReport } from '../../../workers/dsp/inverter-analysis';
+import { analyseInverter, patternOfQuantity, type InverterAnalysisInput, type InverterReport } from '../../../workers/dsp/inverter-analysis';
 import { rpmAtTimes } from '../../../workers/dsp/speed';
-import { frameTimeS } from '../../../workers/dsp/stft';
+import { frameTimeS, type StftLayout } from '../../../workers/dsp/stft';
 import { makeWindow } from '../../../workers/dsp/window';
 import type { Options } from '../options';
 import { UsageError } from '../options';
@@ -28,9 +28,8 @@ function parseList<T>(o: Options, key: string, parse: (s: string) => T | null): 
     });
 }
 
-export async function inverterCommand(file: string, o: Options): Promise<Omit<InverterReport, 'families'> & { families: unknown[] }> {
-  const channel = channelIndex(o);
-  const block = o.integer('block', 8192, 256);
+/** The inverter options every command that analyses a file takes (`inverter`, `compare`). */
+export function inverterOptions(o: Options) {
   const polePairs = o.has('pole-pairs') ? o.integer('pole-pairs', undefined, 1) : undefined;
   const orders = parseList(o, 'orders', (s) => (Number.isFinite(Number(s)) && Number(s) > 0 ? Number(s) : null));
   const families = parseList(o, 'families', (s) => {
@@ -38,30 +37,57 @@ export async function inverterCommand(file: string, o: Options): Promise<Omit<In
     return m && Number(m[1]) >= 1 ? { m: Number(m[1]), n: Number(m[2]) } : null;
   });
   const quantity = o.choice('quantity', ['acceleration', 'velocity', 'sound-pressure', 'voltage', 'other'] as const, o.has('sound-pressure') ? 'sound-pressure' : 'other');
-  const expectedPattern = patternOfQuantity(quantity) ?? undefined;
+  return { block: o.integer('block', 8192, 256), polePairs, orders, families, expectedPattern: patternOfQuantity(quantity) ?? undefined };
+}
+
+export interface FileAnalysis {
+  fileName: string;
+  layout: StftLayout;
+  /** The map's mean squares, frames × bins, and the window's ENBW in bins */
+  power: Float32Array;
+  enbwBins: number;
+  frameRpm: Float64Array;
+  report: InverterReport;
+}
+
+/**
+ * One file through the inverter analysis as the Bench does it: the channel (calibrated), the speed, a
+ * Hann map on the pool's threads, then analyseInverter with the samples (crossings filtered).
+ */
+export async function analyseFile(file: string, o: Options, pool: MapThreadPool, extra: Partial<InverterAnalysisInput> = {}): Promise<FileAnalysis> {
+  const channel = channelIndex(o);
+  const opts = inverterOptions(o);
   const curve = await speedCurveFrom(file, o, 'speed-cal');
   const rec = await readChannels(file, [channel]);
   const x = scaled(rec.samples[0], calibrationFactor(o));
-  const settings = { window: 'hann' as const, blockSize: block, overlap: 0.75 };
+  const settings = { window: 'hann' as const, blockSize: opts.block, overlap: 0.75 };
+  const { layout, power } = await pool.map(x, rec.header.sampleRateHz, settings);
+  if (layout.frames < 8) throw new UsageError(`${rec.header.fileName} is too short for blocks of ${opts.block}: it gives ${layout.frames} frames; use a smaller --block.`);
+  const times = Float64Array.from({ length: layout.frames }, (_, f) => frameTimeS(layout, f));
+  const frameRpm = rpmAtTimes(curve, times);
+  const enbwBins = makeWindow('hann', opts.block).enbwBins;
+  const report = analyseInverter({
+    power,
+    layout,
+    window: 'hann',
+    enbwBins,
+    frameRpm,
+    polePairs: opts.polePairs,
+    orders: opts.orders ?? [],
+    families: opts.families,
+    tonalityAtS: o.has('at') ? o.number('at') : undefined,
+    soundPressure: o.has('sound-pressure'),
+    expectedPattern: opts.expectedPattern,
+    samples: x,
+    ...extra,
+  });
+  return { fileName: rec.header.fileName, layout, power, enbwBins, frameRpm, report };
+}
+
+export async function inverterCommand(file: string, o: Options): Promise<Omit<InverterReport, 'families'> & { families: unknown[] }> {
   const pool = new MapThreadPool();
   try {
-    const { layout, power } = await pool.map(x, rec.header.sampleRateHz, settings);
-    if (layout.frames < 8) throw new UsageError(`${rec.header.fileName} is too short for blocks of ${block}: it gives ${layout.frames} frames; use a smaller --block.`);
-    const times = Float64Array.from({ length: layout.frames }, (_, f) => frameTimeS(layout, f));
-    const report = analyseInverter({
-      power,
-      layout,
-      window: 'hann',
-      enbwBins: makeWindow('hann', block).enbwBins,
-      frameRpm: rpmAtTimes(curve, times),
-      polePairs,
-      orders: orders ?? [],
-      families,
-      tonalityAtS: o.has('at') ? o.number('at') : undefined,
-      soundPressure: o.has('sound-pressure'),
-      expectedPattern,
-      samples: x,
-    });
+    const { report } = await analyseFile(file, o, pool);
     return {
       ...report,
       orders: report.orders.map(({ order, rpm, rms, crossing, filtered }) => ({ order, rpm, rms, crossing, filtered })),

@@ -26,7 +26,7 @@ export interface DemoRecording {
 
 const FS = 51200;
 const POLE_PAIRS = 4;
-const VERSION = 1;
+const VERSION = 2;
 
 const ACC_FULL_SCALE_G = 10;
 const MIC_FULL_SCALE_PA = 2;
@@ -47,6 +47,14 @@ export const demoRecordings: DemoRecording[] = [
     channels,
   },
   {
+    file: 'ca7-run-up-30s-firmware-b.wav',
+    title: 'CA-7 run-up after the firmware change, 500 → 12 000 rpm in 30 s',
+    description:
+      'The same run-up with inverter firmware B: a new carrier schedule, 10 kHz switching to 12 kHz at 7000 rpm, ' +
+      'and a modulation that lowers the first sidebands (fc ± fe). Same sensors; compare it with the first run-up.',
+    channels,
+  },
+  {
     file: 'ca7-coast-down-spread-carrier.wav',
     title: 'CA-7 coast-down with a spread carrier, 9000 → 1000 rpm in 20 s',
     description:
@@ -58,8 +66,18 @@ export const demoRecordings: DemoRecording[] = [
 /** Sideband levels grow with the modulation index, i.e. with speed (common practice). */
 const withSpeed = (base: number, maxRpm: number) => (rpm: number) => base * (0.35 + 0.65 * Math.min(1, rpm / maxRpm));
 
-function drive(rpm: (t: number) => number, durationS: number, carrierHz: (t: number) => number, spread?: DriveSignalOptions['spread']) {
+/** How a firmware changes the carrier families: a gain per family, 1 where it leaves one alone. */
+type FamilyGains = (m: number, n: number) => number;
+const unchanged: FamilyGains = () => 1;
+
+function drive(rpm: (t: number) => number, durationS: number, carrierHz: (t: number) => number, spread?: DriveSignalOptions['spread'], gains: FamilyGains = unchanged) {
   const common = { fsHz: FS, durationS, rpm, polePairs: POLE_PAIRS, carrierHz, spread };
+  const scaled = (fs: { m: number; n: number; amplitude: number | ((rpm: number) => number) }[]) =>
+    fs.map((f) => {
+      const g = gains(f.m, f.n);
+      const a = f.amplitude;
+      return { ...f, amplitude: typeof a === 'number' ? a * g : (r: number) => a(r) * g };
+    });
   // Accelerometer, g: orders 8 (pole-pair order ×2), 16, 48 (slot order); force-driven carrier
   // families m + n even: fc ± fe, fc ± 3fe, 2fc, 2fc ± 2fe.
   const acc = synthesiseDrive({
@@ -69,7 +87,7 @@ function drive(rpm: (t: number) => number, durationS: number, carrierHz: (t: num
       { order: 16, amplitude: 0.025 },
       { order: 48, amplitude: withSpeed(0.09, 12000) },
     ],
-    families: [
+    families: scaled([
       { m: 1, n: 1, amplitude: withSpeed(0.18, 12000) },
       { m: 1, n: -1, amplitude: withSpeed(0.16, 12000) },
       { m: 1, n: 3, amplitude: withSpeed(0.06, 12000) },
@@ -77,7 +95,7 @@ function drive(rpm: (t: number) => number, durationS: number, carrierHz: (t: num
       { m: 2, n: 0, amplitude: 0.05 },
       { m: 2, n: 2, amplitude: withSpeed(0.035, 12000) },
       { m: 2, n: -2, amplitude: withSpeed(0.03, 12000) },
-    ],
+    ]),
     noiseRms: 0.012,
     seed: 101,
   });
@@ -88,13 +106,13 @@ function drive(rpm: (t: number) => number, durationS: number, carrierHz: (t: num
       { order: 8, amplitude: withSpeed(0.012, 12000) },
       { order: 48, amplitude: withSpeed(0.03, 12000) },
     ],
-    families: [
+    families: scaled([
       { m: 1, n: 1, amplitude: withSpeed(0.025, 12000) },
       { m: 1, n: -1, amplitude: withSpeed(0.022, 12000) },
       { m: 1, n: 3, amplitude: withSpeed(0.008, 12000) },
       { m: 1, n: -3, amplitude: withSpeed(0.007, 12000) },
       { m: 2, n: 0, amplitude: 0.004 },
-    ],
+    ]),
     noiseRms: 0.004,
     seed: 202,
   });
@@ -111,6 +129,12 @@ function synthesise(r: DemoRecording): Uint8Array {
   if (r.file === 'ca7-run-up-30s.wav') {
     const rpm = (t: number) => 500 + (11500 * t) / 30;
     return drive(rpm, 30, (t) => (rpm(t) < 6000 ? 8000 : 12000));
+  }
+  if (r.file === 'ca7-run-up-30s-firmware-b.wav') {
+    const rpm = (t: number) => 500 + (11500 * t) / 30;
+    // firmware B: fc ± fe 5 dB lower, fc ± 3fe 2 dB higher (invented for the demo)
+    const firmwareB: FamilyGains = (m, n) => (m === 1 && Math.abs(n) === 1 ? 10 ** (-5 / 20) : m === 1 && Math.abs(n) === 3 ? 10 ** (2 / 20) : 1);
+    return drive(rpm, 30, (t) => (rpm(t) < 7000 ? 10000 : 12000), undefined, firmwareB);
   }
   const rpm = (t: number) => 9000 - (8000 * t) / 20;
   return drive(rpm, 20, () => 10000, { widthHz: 1200, rateHz: 150 });

@@ -35,7 +35,7 @@ describe('demo seed', () => {
       const projects = (await s.request('GET', '/api/projects')).body.projects as { id: number; name: string }[];
       const project = projects.find((p) => p.name === demoProject.name)!;
       const recordings = (await s.request('GET', `/api/projects/${project.id}/recordings`)).body.recordings as { name: string }[];
-      expect(recordings.map((r) => r.name).sort()).toEqual(['ca7-coast-down-spread-carrier.wav', 'ca7-run-up-30s.wav']);
+      expect(recordings.map((r) => r.name).sort()).toEqual(['ca7-coast-down-spread-carrier.wav', 'ca7-run-up-30s-firmware-b.wav', 'ca7-run-up-30s.wav']);
       const views = (await s.request('GET', `/api/projects/${project.id}/views?q=carrier%20steps`)).body.views as { id: number; title: string }[];
       const view = views.find((v) => v.title === DEMO_VIEW_TITLE)!;
       expect(view).toBeDefined();

@@ -25,7 +25,7 @@ describe('the first hour with the demo (browser)', () => {
       await page.waitForURL(`${baseUrl}/projects`);
       await page.getByRole('link', { name: demoProject.name }).click();
       const recordings = page.getByTestId('project-recordings');
-      await expect.poll(() => recordings.getByText('ca7-run-up-30s.wav').isVisible()).toBe(true);
+      await expect.poll(() => recordings.getByText('ca7-run-up-30s.wav', { exact: true }).isVisible()).toBe(true);
       await expect.poll(() => page.getByRole('link', { name: DEMO_VIEW_TITLE }).first().isVisible()).toBe(true);
 
       // the view: snapshot painted, the marks listed, the thread there

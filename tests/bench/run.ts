@@ -1,6 +1,7 @@
 /** `npm run bench`: the performance figures the README quotes. Not a test: it measures and prints. */
 import { runApiLoadBench } from './api-load-bench';
 import { runBrowserBench } from './browser-bench';
+import { runCompareBench } from './compare-bench';
 import { runDecodeBench } from './decode-bench';
 import { runExtractBench } from './extract-bench';
 import { runInverterBench } from './inverter-bench';
@@ -22,6 +23,9 @@ if (map.scipyRfft60S !== undefined) {
 console.log('inverter findings (batch CLI):');
 const inverter = runInverterBench(log);
 targets.push(`inverter command on 20 s under 3 s: ${inverter.bestS < 3 ? 'met' : 'NOT met'}`);
+console.log('comparing runs (batch CLI):');
+const compare = runCompareBench(log);
+targets.push(`compare of two 20 s run-ups under 6 s: ${compare.bestS < 6 ? 'met' : 'NOT met'}`);
 console.log('Vold-Kalman extraction (batch CLI):');
 const extract = runExtractBench(log);
 targets.push(`extract on 20 s, 3 components under 5 s: ${extract.bestS < 5 ? 'met' : 'NOT met'}`);

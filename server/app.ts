@@ -23,6 +23,7 @@ import { outboxRoutes } from './routes/outbox';
 import { projectRoutes } from './routes/projects';
 import { recordingRoutes } from './routes/recordings';
 import { shareLinkRoutes } from './routes/share-links';
+import { targetRoutes } from './routes/targets';
 import { viewRoutes } from './routes/views';
 import { AdminService } from './services/admin-service';
 import { AuthService } from './services/auth-service';
@@ -33,10 +34,14 @@ import { PasswordResetService } from './services/password-reset-service';
 import { ProjectService } from './services/project-service';
 import { RecordingService } from './services/recording-service';
 import { ShareLinkService } from './services/share-link-service';
+import { TargetService } from './services/target-service';
 import { ViewSaveService } from './services/view-save-service';
 import { ViewService } from './services/view-service';
 
 export const JSON_BODY_LIMIT = '200kb';
+/** A CSV of targets may hold 200 kB of text; as a JSON string (escaped line ends, UTF-8) it needs a little more. */
+const TARGET_IMPORT_BODY_LIMIT = '300kb';
+const TARGET_IMPORT_PATH = /^\/projects\/[^/]+\/targets\/import$/;
 
 export interface AppDeps {
   config: AppConfig;
@@ -85,7 +90,9 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   const idempotency = idempotentCreates(new IdempotencyRepository(db), config.sessionSecret);
 
   const api = express.Router();
-  api.use(express.json({ limit: JSON_BODY_LIMIT }));
+  const jsonBody = express.json({ limit: JSON_BODY_LIMIT });
+  const importBody = express.json({ limit: TARGET_IMPORT_BODY_LIMIT });
+  api.use((req, res, next) => (TARGET_IMPORT_PATH.test(req.path) ? importBody : jsonBody)(req, res, next));
   api.use(healthRoutes(db));
   if (config.env !== 'production') api.use(outboxRoutes(config.smtp.outboxDir));
   api.use(session.middleware);
@@ -97,6 +104,7 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   api.use(authRoutes(auth, new PasswordResetService(db, mailer, config.publicOrigin)));
   api.use(projectRoutes(new ProjectService(db), invitations));
   api.use(recordingRoutes(new RecordingService(db)));
+  api.use(targetRoutes(new TargetService(db)));
   api.use(viewRoutes(views, new ViewSaveService(db, views, notifications)));
   api.use(markRoutes(new MarkService(db, notifications)));
   api.use(shareLinkRoutes(new ShareLinkService(db, views, notifications, config.publicOrigin)));

@@ -19,6 +19,7 @@ import * as createShareLinks from '../../migrations/20261201001300_create_share_
 import * as createComments from '../../migrations/20261201001400_create_comments';
 import * as createNotificationSettings from '../../migrations/20261201001500_create_notification_settings';
 import * as createIdempotencyKeys from '../../migrations/20261205000100_create_idempotency_keys';
+import * as createTargets from '../../migrations/20261205000200_create_targets';
 
 interface NamedMigration {
   name: string;
@@ -42,6 +43,7 @@ export const migrations: NamedMigration[] = [
   { name: '20261201001400_create_comments', module: createComments },
   { name: '20261201001500_create_notification_settings', module: createNotificationSettings },
   { name: '20261205000100_create_idempotency_keys', module: createIdempotencyKeys },
+  { name: '20261205000200_create_targets', module: createTargets },
 ];
 
 export const migrationSource: Knex.MigrationSource<NamedMigration> = {

@@ -82,6 +82,18 @@ const recordingBody = () => ({
   channels: [{ index: 0, name: 'acc housing', quantity: 'acceleration', unit: 'm/s²', calibration: { kind: 'scale', factor: 1 } }],
 });
 
+/** Targets: each call its own track (order:1, order:2, …), so no create meets one it made before. */
+let tracksMade = 0;
+const freshTrack = () => `order:${++tracksMade}`;
+const TARGET_POINTS = [
+  [1000, 60],
+  [3000, 66],
+];
+async function insertTarget(projectId: number, createdBy: number): Promise<number> {
+  const [id] = await t.db('targets').insert({ project_id: projectId, track: freshTrack(), weighting: 'A', points: JSON.stringify(TARGET_POINTS), created_by: createdBy });
+  return id;
+}
+
 const ROWS: Row[] = [
   { method: 'GET', route: '/api/health', expect: all(200), call: () => ({ path: '/api/health' }) },
   { method: 'GET', route: '/api/outbox', expect: all(200), call: () => ({ path: '/api/outbox' }) },
@@ -187,6 +199,40 @@ const ROWS: Row[] = [
     route: '/api/projects/:id/recordings',
     expect: member('engineer', 201),
     call: (f) => ({ path: `/api/projects/${f.projectId}/recordings`, body: recordingBody() }),
+  },
+  {
+    method: 'GET',
+    route: '/api/projects/:id/targets',
+    expect: member('viewer', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/targets` }),
+  },
+  {
+    method: 'POST',
+    route: '/api/projects/:id/targets',
+    expect: member('engineer', 201),
+    // a fresh track each call: a second target of one track and weighting is a 409
+    call: (f) => ({ path: `/api/projects/${f.projectId}/targets`, body: { track: freshTrack(), weighting: 'A', points: TARGET_POINTS } }),
+  },
+  {
+    method: 'POST',
+    route: '/api/projects/:id/targets/import',
+    expect: member('engineer', 200),
+    call: (f) => {
+      const track = freshTrack();
+      return { path: `/api/projects/${f.projectId}/targets/import`, body: { csv: `track,rpm,db\n${track},1000,60\n${track},3000,66`, weighting: 'Z' } };
+    },
+  },
+  {
+    method: 'PATCH',
+    route: '/api/targets/:id',
+    expect: member('engineer', 200),
+    call: async (f) => ({ path: `/api/targets/${await insertTarget(f.projectId, f.engineerId)}`, body: { version: 1, label: 'edited by the matrix' } }),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/targets/:id',
+    expect: member('engineer', 204),
+    call: async (f) => ({ path: `/api/targets/${await insertTarget(f.projectId, f.engineerId)}` }),
   },
   {
     method: 'GET',

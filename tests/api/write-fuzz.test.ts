@@ -61,6 +61,9 @@ describe('bad input on the write routes', () => {
   let otherProjectId: number;
   let viewId: number;
   let markId: number;
+  let targetId: number;
+  let tracksMade = 0;
+  const freshTrack = () => `order:${++tracksMade}`;
 
   beforeAll(async () => {
     const l = await makeUser(t.db, 'fuzz-lead', 'staff');
@@ -72,6 +75,7 @@ describe('bad input on the write routes', () => {
     otherProjectId = await makeProject(t.db, []);
     viewId = await insertView(t.db, projectId, e.id, 'Fuzz target');
     markId = await insertMark(t.db, viewId, e.id);
+    [targetId] = await t.db('targets').insert({ project_id: projectId, track: 'overall', weighting: 'A', points: '[[0,60],[1000,70]]', created_by: e.id });
     lead = await sessionFor(t.app, l.email);
     engineer = await sessionFor(t.app, e.email);
   });
@@ -113,6 +117,26 @@ describe('bad input on the write routes', () => {
       as: () => engineer,
     },
     { name: 'invite a member', method: 'POST', path: () => `/api/projects/${projectId}/invitations`, valid: () => ({ email: `fuzz-${randomUUID()}@fanlight.test`, role: 'viewer' }), table: 'invitations', as: () => lead },
+    {
+      name: 'set a target',
+      method: 'POST',
+      path: () => `/api/projects/${projectId}/targets`,
+      valid: () => ({ track: freshTrack(), weighting: 'A', points: [[1000, 60], [3000, 66]], label: 'fuzz' }),
+      table: 'targets',
+      as: () => engineer,
+    },
+    {
+      name: 'import targets',
+      method: 'POST',
+      path: () => `/api/projects/${projectId}/targets/import`,
+      valid: () => {
+        const track = freshTrack();
+        return { csv: `track,rpm,db\n${track},1000,60\n${track},3000,66`, weighting: 'Z', replace: false };
+      },
+      table: 'targets',
+      as: () => engineer,
+    },
+    { name: 'edit a target', method: 'PATCH', path: () => `/api/targets/${targetId}`, valid: () => ({ version: 1, label: 'edited', points: [[0, 61], [1000, 71]] }), table: 'targets', as: () => engineer },
     { name: 'edit a mark', method: 'PATCH', path: () => `/api/marks/${markId}`, valid: () => ({ version: 1, text: 'edited' }), table: 'marks', as: () => engineer },
     { name: 'rename a view', method: 'PATCH', path: () => `/api/views/${viewId}`, valid: () => ({ version: 1, title: 'renamed' }), table: 'views', as: () => engineer },
   ];

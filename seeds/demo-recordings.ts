@@ -22,6 +22,8 @@ export interface DemoRecording {
   title: string;
   description: string;
   channels: DemoChannel[];
+  /** The demo recording this one is the changed run of (the Bench offers the comparison in one click) */
+  comparesWith?: string;
 }
 
 const FS = 51200;
@@ -53,6 +55,7 @@ export const demoRecordings: DemoRecording[] = [
       'The same run-up with inverter firmware B: a new carrier schedule, 10 kHz switching to 12 kHz at 7000 rpm, ' +
       'and a modulation that lowers the first sidebands (fc ± fe). Same sensors; compare it with the first run-up.',
     channels,
+    comparesWith: 'ca7-run-up-30s.wav',
   },
   {
     file: 'ca7-coast-down-spread-carrier.wav',

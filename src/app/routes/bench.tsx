@@ -15,6 +15,7 @@ import { demoSetup, fetchDemoRecording, useDemoRecordings } from '../../features
 import { errorMessage } from '../../lib/error-message';
 import type { LibraryEntry } from '../../features/library/api/library-store';
 import { warmPool } from '../../lib/workers/analysis-pool';
+import { useComparisonParams } from '../../features/bench/workspace/use-comparison-params';
 
 /**
  * `?open=<fingerprint>` opens a library entry; `?view=<id>` starts it from a saved view of that recording
@@ -81,6 +82,8 @@ export function BenchPage() {
     );
   }, [demoParam, demos.isPending, demos.data, read, showNotice]);
 
+  const comparison = useComparisonParams(params, setParams, open?.entry.fingerprint ?? null, demos.data);
+
   const close = () => {
     reader.close();
     setOpenParam(null);
@@ -111,8 +114,13 @@ export function BenchPage() {
         busy={reading !== null}
         onOpen={(fingerprint) => void openFromLibrary(fingerprint)}
         onOpenFile={(file, name, setup) => void reader.read(file, name, undefined, setup)}
-        onRemoved={(fingerprint) => fingerprint === open?.entry.fingerprint && close()}
+        onRemoved={(fingerprint) => (fingerprint === open?.entry.fingerprint ? close() : comparison.remove(fingerprint))}
+        onCompare={open ? comparison.add : undefined}
+        onCompareDemo={open ? comparison.compareDemo : undefined}
+        onComparePair={comparison.comparePair}
+        compared={comparison.compared}
       />
+      {comparison.error && <Notice tone="error">The demo recording could not be added for comparison: {comparison.error.message}</Notice>}
     </>
   );
 
@@ -146,6 +154,8 @@ export function BenchPage() {
               preferredProjectId={preferredProjectId}
               fromView={fromView.kind === 'ready' ? fromView.value : undefined}
               onClose={close}
+              compared={comparison.compared}
+              onStopComparing={comparison.remove}
             />
           </ErrorBoundary>
         </>

@@ -18,7 +18,8 @@ interface Lane {
   worker: Worker;
   remote: Comlink.Remote<AnalysisWorkerApi>;
   answered: boolean;
-  fail: ((e: Error) => void) | null;
+  /** The tasks sent to this worker and not yet answered, each told if the worker fails */
+  inFlight: Set<(e: Error) => void>;
 }
 
 const lanes = new Map<TaskLane, Lane>();
@@ -36,12 +37,12 @@ function laneFor(name: TaskLane): Lane | null {
   if (lane) return lane;
   try {
     const worker = new Worker(new URL('../../../workers/analysis.worker.ts', import.meta.url), { type: 'module', name: `fanlight-${name}` });
-    const created: Lane = { worker, remote: Comlink.wrap<AnalysisWorkerApi>(worker), answered: false, fail: null };
+    const created: Lane = { worker, remote: Comlink.wrap<AnalysisWorkerApi>(worker), answered: false, inFlight: new Set() };
     worker.addEventListener('error', (e) => {
       e.preventDefault();
       if (!created.answered) noWorkers = true;
       stop(name, created);
-      created.fail?.(new WorkerUnavailable());
+      for (const fail of [...created.inFlight]) fail(new WorkerUnavailable());
     });
     lanes.set(name, created);
     return created;
@@ -63,17 +64,22 @@ function stop(name: TaskLane, lane: Lane) {
   lane.worker.terminate();
 }
 
-const current = new Map<TaskLane, () => void>();
+/** The running task of each lane and owner (each session of the Bench is an owner). */
+const current = new Map<string, () => void>();
 
 /**
  * Runs a task: `viaWorker` with the lane's worker (it sends its input, transferred), or `inline` on
- * this thread. Each builds its input afresh, since a transfer empties the buffers it sends.
+ * this thread. Each builds its input afresh, since a transfer empties the buffers it sends. A newer
+ * task of the same lane and owner cancels the older; the sessions compared on the Bench are owners of
+ * their own, whose tasks queue in the lane's one worker.
  */
-export function runTask<T>(name: TaskLane, viaWorker: (remote: Comlink.Remote<AnalysisWorkerApi>) => Promise<T>, inline: () => T): TaskJob<T> {
-  current.get(name)?.();
+export function runTask<T>(name: TaskLane, viaWorker: (remote: Comlink.Remote<AnalysisWorkerApi>) => Promise<T>, inline: () => T, owner = ''): TaskJob<T> {
+  const slot = `${name}:${owner}`;
+  current.get(slot)?.();
   let cancelled = false;
   let reject!: (e: Error) => void;
   let lane: Lane | null = null;
+  let fail: ((e: Error) => void) | null = null;
   const runInline = () =>
     new Promise<T>((res, rej) =>
       setTimeout(() => {
@@ -93,20 +99,24 @@ export function runTask<T>(name: TaskLane, viaWorker: (remote: Comlink.Remote<An
       return;
     }
     const mine = lane;
-    mine.fail = (e) => {
+    const done = () => {
+      mine.answered = true;
+      if (fail) mine.inFlight.delete(fail);
+    };
+    fail = (e) => {
+      if (fail) mine.inFlight.delete(fail);
       if (cancelled) return;
       if (e instanceof WorkerUnavailable) runInline().then(resolve, rej);
       else rej(e);
     };
+    mine.inFlight.add(fail);
     viaWorker(mine.remote).then(
       (v) => {
-        mine.answered = true;
-        mine.fail = null;
+        done();
         if (!cancelled) resolve(v);
       },
       (e: unknown) => {
-        mine.answered = true;
-        mine.fail = null;
+        done();
         if (!cancelled) rej(e instanceof Error ? e : new Error(String(e)));
       },
     );
@@ -115,18 +125,19 @@ export function runTask<T>(name: TaskLane, viaWorker: (remote: Comlink.Remote<An
   const cancel = () => {
     if (cancelled) return;
     cancelled = true;
-    if (current.get(name) === cancel) current.delete(name);
-    // A worker busy with the stale task is stopped; the next task gets a fresh one.
-    if (lane && lane.fail) {
-      lane.fail = null;
-      stop(name, lane);
+    if (current.get(slot) === cancel) current.delete(slot);
+    // A worker busy with the stale task alone is stopped (the next task gets a fresh one); one that
+    // holds other owners' tasks too finishes it, and its answer is dropped.
+    if (lane && fail && lane.inFlight.has(fail)) {
+      lane.inFlight.delete(fail);
+      if (lane.inFlight.size === 0) stop(name, lane);
     }
     reject(abortError());
   };
-  current.set(name, cancel);
+  current.set(slot, cancel);
   promise.then(
-    () => current.get(name) === cancel && current.delete(name),
-    () => current.get(name) === cancel && current.delete(name),
+    () => current.get(slot) === cancel && current.delete(slot),
+    () => current.get(slot) === cancel && current.delete(slot),
   );
   return { promise, cancel };
 }

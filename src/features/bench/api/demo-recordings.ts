@@ -9,6 +9,8 @@ export interface DemoRecording {
   sizeBytes: number;
   /** How each channel was recorded, so the Bench can set the channels up on opening */
   channels: { name: string; quantity: Quantity; unit: string; factor: number }[];
+  /** The demo recording this one is the changed run of */
+  comparesWith?: string;
 }
 
 /** The channel setup the demo file was made with (names, quantities, units, full-scale factors). */

@@ -15,9 +15,26 @@ interface LibraryPanelProps {
   /** A file fetched from elsewhere (a demo recording), read like a drop */
   onOpenFile: (file: Blob, name: string, setup?: ChannelSetup[]) => void;
   onRemoved: (fingerprint: string) => void;
+  /** With a recording open: put another next to it for comparison (a library entry, or a demo file) */
+  onCompare?: (fingerprint: string) => void;
+  onCompareDemo?: (file: string, setup: ChannelSetup[] | undefined) => void;
+  /** The runs compared with the open one */
+  compared?: string[];
+  /** Open a demo recording with the one it is compared with (its baseline) next to it */
+  onComparePair?: (baselineFile: string, changedFile: string) => void;
 }
 
-function DemoRecordings({ busy, onOpenFile }: { busy: boolean; onOpenFile: LibraryPanelProps['onOpenFile'] }) {
+function DemoRecordings({
+  busy,
+  onOpenFile,
+  onCompareDemo,
+  onComparePair,
+}: {
+  busy: boolean;
+  onOpenFile: LibraryPanelProps['onOpenFile'];
+  onCompareDemo?: LibraryPanelProps['onCompareDemo'];
+  onComparePair?: LibraryPanelProps['onComparePair'];
+}) {
   const { data } = useDemoRecordings();
   const [fetching, setFetching] = useState<string | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -45,6 +62,16 @@ function DemoRecordings({ busy, onOpenFile }: { busy: boolean; onOpenFile: Libra
               <p className="font-medium text-mist-100">{d.title}</p>
               <p className="text-xs text-mist-500">{d.description}</p>
               <p className="font-mono text-[11px] text-mist-500">{formatMegabytes(d.sizeBytes)}</p>
+              {d.comparesWith && onComparePair && data.some((b) => b.file === d.comparesWith) && (
+                <button
+                  type="button"
+                  className="mt-1 text-left text-xs text-accent hover:text-accent-strong disabled:opacity-50"
+                  disabled={busy || fetching !== null}
+                  onClick={() => onComparePair(d.comparesWith!, d.file)}
+                >
+                  Compare with {data.find((b) => b.file === d.comparesWith)!.title}
+                </button>
+              )}
             </div>
             <Button
               type="button"
@@ -56,6 +83,19 @@ function DemoRecordings({ busy, onOpenFile }: { busy: boolean; onOpenFile: Libra
             >
               {fetching === d.file ? 'Fetching…' : 'Open'}
             </Button>
+            {onCompareDemo && (
+              <Button
+                type="button"
+                variant="quiet"
+                className="px-2.5 py-1"
+                aria-label={`Compare the demo recording ${d.title}`}
+                title="Put it next to the open recording, on the same guides"
+                disabled={busy || fetching !== null}
+                onClick={() => onCompareDemo(d.file, demoSetup(d))}
+              >
+                Compare
+              </Button>
+            )}
           </li>
         ))}
       </ul>
@@ -63,7 +103,7 @@ function DemoRecordings({ busy, onOpenFile }: { busy: boolean; onOpenFile: Libra
   );
 }
 
-export function LibraryPanel({ openFingerprint, busy, onOpen, onOpenFile, onRemoved }: LibraryPanelProps) {
+export function LibraryPanel({ openFingerprint, busy, onOpen, onOpenFile, onRemoved, onCompare, onCompareDemo, onComparePair, compared = [] }: LibraryPanelProps) {
   const { data: entries, isPending, error } = useLibrary();
   const { data: storage } = useStorageEstimate();
   const remove = useRemoveFromLibrary();
@@ -119,6 +159,19 @@ export function LibraryPanel({ openFingerprint, busy, onOpen, onOpenFile, onRemo
                       added <time dateTime={e.addedAt} className="font-mono">{formatDateTime(e.addedAt)}</time>
                     </p>
                   </div>
+                  {onCompare && !isOpen && (
+                    <Button
+                      type="button"
+                      variant="quiet"
+                      className="px-2.5 py-1"
+                      aria-label={`Compare ${e.name} with the open recording`}
+                      aria-pressed={compared.includes(e.fingerprint)}
+                      disabled={busy || compared.includes(e.fingerprint)}
+                      onClick={() => onCompare(e.fingerprint)}
+                    >
+                      {compared.includes(e.fingerprint) ? 'Compared' : 'Compare'}
+                    </Button>
+                  )}
                   <Button
                     type="button"
                     variant="danger"
@@ -144,7 +197,7 @@ export function LibraryPanel({ openFingerprint, busy, onOpen, onOpenFile, onRemo
             'This browser does not say how much storage it allows.'
           )}
         </p>
-        <DemoRecordings busy={busy} onOpenFile={onOpenFile} />
+        <DemoRecordings busy={busy} onOpenFile={onOpenFile} onCompareDemo={onCompareDemo} onComparePair={onComparePair} />
       </div>
     </BenchPanel>
   );

@@ -1,7 +1,10 @@
 import type { ReactNode } from 'react';
 import { ErrorBoundary } from '../../../components/errors/error-boundary';
 import type { OpenRecording } from '../hooks/use-recording-reader';
-import { BenchSession } from '../session/bench-session';
+import { BaselineSession } from '../workspace/baseline-session';
+import { ComparedRuns } from '../workspace/compared-runs';
+import { ComparePanel } from '../workspace/compare-panel';
+import { BenchWorkspace } from '../workspace/workspace';
 import type { ViewOnBench } from '../view-state/view-restore';
 import { BenchKeys } from './bench-keys';
 import { Dock } from './dock';
@@ -23,6 +26,8 @@ export function Workbench({
   preferredProjectId,
   fromView,
   onClose,
+  compared = [],
+  onStopComparing,
 }: {
   recording: OpenRecording;
   intake: ReactNode;
@@ -30,9 +35,13 @@ export function Workbench({
   /** A saved view of this recording to start from (`?view=`): its settings, guides, zoom and marks */
   fromView?: ViewOnBench;
   onClose: () => void;
+  /** Library fingerprints of the runs compared with this one (the baseline) */
+  compared?: string[];
+  onStopComparing?: (fingerprint: string) => void;
 }) {
   return (
-    <BenchSession recording={recording} fromView={fromView} preferredProjectId={preferredProjectId}>
+    <BenchWorkspace>
+      <BaselineSession recording={recording} fromView={fromView} preferredProjectId={preferredProjectId}>
       {/* Narrow: one column. Wide: channels left, map centre, guides and findings right; in between,
           the guides and findings go under the channels. */}
       <div className="grid items-start gap-4 lg:grid-cols-[17.5rem_minmax(0,1fr)] lg:grid-rows-[auto_auto_1fr] xl:grid-cols-[17.5rem_minmax(0,1fr)_19.5rem]">
@@ -49,6 +58,12 @@ export function Workbench({
           <ErrorBoundary region="The dock">
             <Dock />
           </ErrorBoundary>
+          {compared.length > 0 && (
+            <ErrorBoundary region="The comparison">
+              <ComparedRuns fingerprints={compared} onRemove={(f) => onStopComparing?.(f)} />
+              <ComparePanel />
+            </ErrorBoundary>
+          )}
         </div>
         <div className="flex flex-col gap-4 lg:col-start-1 lg:row-start-2 xl:col-start-3 xl:row-span-3 xl:row-start-1">
           <GuidesPanel />
@@ -61,6 +76,7 @@ export function Workbench({
         </div>
       </div>
       <BenchKeys />
-    </BenchSession>
+      </BaselineSession>
+    </BenchWorkspace>
   );
 }

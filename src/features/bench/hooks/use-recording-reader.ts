@@ -32,7 +32,7 @@ export interface ReaderNotice {
   message: string;
 }
 
-function entryFrom(decoded: DecodedWithFingerprint, fileName: string, csv: CsvOptions | undefined, setup?: ChannelSetup[]): LibraryEntry {
+export function entryFrom(decoded: DecodedWithFingerprint, fileName: string, csv: CsvOptions | undefined, setup?: ChannelSetup[]): LibraryEntry {
   const h = decoded.header;
   return {
     fingerprint: decoded.fingerprint,

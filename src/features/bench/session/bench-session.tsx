@@ -1,6 +1,7 @@
 import { createContext, useContext, useLayoutEffect, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
 import type { OpenRecording } from '../hooks/use-recording-reader';
-import type { ViewOnBench } from '../view-state/view-restore';
+import type { GuidesState } from '../map/guides';
+import type { BenchRestore, ViewOnBench } from '../view-state/view-restore';
 import { captureView } from './capture-view';
 import { createBenchStores, type BenchStores } from './live-stores';
 import { createStore, type Store } from './store';
@@ -15,10 +16,17 @@ import { useViewModel } from './use-view-model';
  * tasks); the state lands in a store that panels read through selectors, so a panel re-renders only
  * for what it shows.
  */
-function useBenchModel(recording: OpenRecording, fromView: ViewOnBench | undefined, preferredProjectId: number | null, live: BenchStores) {
-  const restore = fromView?.restore;
+function useBenchModel(
+  recording: OpenRecording,
+  fromView: ViewOnBench | undefined,
+  preferredProjectId: number | null,
+  live: BenchStores,
+  start: BenchRestore | undefined,
+  follow: FollowedView | undefined,
+) {
+  const restore = fromView?.restore ?? start;
   const inputs = useInputsModel(recording, restore);
-  const map = useMapModel(recording, inputs.state.setup, inputs.state.speed, restore);
+  const map = useMapModel(recording, inputs.state.setup, inputs.state.speed, restore, follow?.against);
   const m = map.state;
   const analysis = useAnalysisModel(
     {
@@ -34,8 +42,10 @@ function useBenchModel(recording: OpenRecording, fromView: ViewOnBench | undefin
       channelSetup: m.channelSetup,
       typedPoles: inputs.state.typedPoles,
       mapChannel: m.mapChannel,
+      owner: recording.entry.fingerprint,
     },
     restore,
+    follow?.guides,
   );
   const view = useViewModel({
     live,
@@ -51,8 +61,9 @@ function useBenchModel(recording: OpenRecording, fromView: ViewOnBench | undefin
     report: analysis.state.report,
     detectedHz: analysis.state.detectedHz,
     dispatchGuides: analysis.actions.dispatchGuides,
+    follow,
   });
-  const state = { recording, fromView, preferredProjectId, ...inputs.state, ...m, ...analysis.state, ...view.state };
+  const state = { recording, fromView, preferredProjectId, following: follow !== undefined, ...inputs.state, ...m, ...analysis.state, ...view.state };
   const actions = {
     ...inputs.actions,
     ...map.actions,
@@ -81,23 +92,48 @@ function stableActions<A extends object>(latest: { current: A }): A {
   return out as A;
 }
 
+/**
+ * A session that follows another (a run compared with the baseline): the guides, the axis along x and
+ * the swap are the baseline's, and the baseline's zoom and pointer stores drive its map.
+ */
+export interface FollowedView {
+  guides: GuidesState;
+  against: 'time' | 'speed';
+  swapped: boolean;
+}
+
 /** Mount keyed by the recording's fingerprint: all of a session belongs to one recording. */
 export function BenchSession({
   recording,
   fromView,
   preferredProjectId,
+  start,
+  follow,
+  live: sharedLive,
+  onPublish,
   children,
 }: {
   recording: OpenRecording;
   /** A saved view of this recording to start from (`?view=`): its settings, guides, zoom and marks */
   fromView?: ViewOnBench;
   preferredProjectId: number | null;
+  /** Settings to start from when there is no saved view (a compared run starts from the baseline's) */
+  start?: BenchRestore;
+  follow?: FollowedView;
+  /** The zoom and pointer stores of the session this one follows */
+  live?: BenchStores;
+  /** Told the session's state after every change (the workspace of compared runs listens) */
+  onPublish?: (state: BenchState) => void;
   children: ReactNode;
 }) {
-  const [live] = useState(createBenchStores);
-  const { state, actions } = useBenchModel(recording, fromView, preferredProjectId, live);
+  const [ownLive] = useState(createBenchStores);
+  const live = sharedLive ?? ownLive;
+  const { state, actions } = useBenchModel(recording, fromView, preferredProjectId, live, start, follow);
   const [store] = useState(() => createStore(state));
-  useLayoutEffect(() => store.set(state));
+  useLayoutEffect(() => {
+    store.set(state);
+    onPublish?.(state);
+  });
   const latest = useRef(actions);
   useLayoutEffect(() => {
     latest.current = actions;

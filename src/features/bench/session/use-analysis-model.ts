@@ -23,11 +23,15 @@ export interface AnalysisInputs {
   typedPoles: number | null;
   /** The map channel's samples and calibration: the tracks filter the crossings from them */
   mapChannel: { samples: Float32Array | null; scale: number };
+  /** The session's recording (its tasks are its own) */
+  owner: string;
 }
 
 /** The guides, the inverter findings, the lines the guides resolve to, their tracks, and the tonality. */
-export function useAnalysisModel(inp: AnalysisInputs, restore: BenchRestore | undefined) {
-  const [guides, dispatchGuides] = useReducer(guidesReducer, restore?.guides ?? (initialGuides as GuidesState));
+export function useAnalysisModel(inp: AnalysisInputs, restore: BenchRestore | undefined, followedGuides?: GuidesState) {
+  const [ownGuides, dispatchGuides] = useReducer(guidesReducer, restore?.guides ?? (initialGuides as GuidesState));
+  // a compared run tracks the baseline's guides
+  const guides = followedGuides ?? ownGuides;
   const orderKs = guides.orders.filter((o) => !o.hidden).map((o) => o.order).join(',');
   const soundPressure = inp.channelSetup?.quantity === 'sound-pressure' && inp.reference.label === '20 µPa';
   const findings = useFindings({
@@ -40,6 +44,7 @@ export function useAnalysisModel(inp: AnalysisInputs, restore: BenchRestore | un
     orders: orderKs,
     expectedPattern: patternOfQuantity(inp.channelSetup?.quantity ?? 'other'),
     soundPressure,
+    owner: inp.owner,
   });
   const report = findings.kind === 'done' ? findings.value : null;
   const polePairs = inp.typedPoles ?? report?.polePairs.value ?? null;
@@ -63,6 +68,7 @@ export function useAnalysisModel(inp: AnalysisInputs, restore: BenchRestore | un
     weighting: inp.settings.weighting,
     refRms: inp.reference.refRms,
     channel: inp.mapChannel,
+    owner: inp.owner,
   });
 
   // The carrier tones' tonality at a moment, as the batch CLI judges it (`analyze inverter --at`)

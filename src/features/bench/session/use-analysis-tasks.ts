@@ -40,6 +40,8 @@ export function useSpeedMap(
   weighting: Weighting,
   refRms: number,
   wanted: boolean,
+  /** The session asking (its tasks cancel only its own older ones) */
+  owner: string,
 ): TaskState<SpeedRaster | null> {
   const [map, setMap] = useState<TaskState<SpeedMap>>({ kind: 'idle' });
   useEffect(() => {
@@ -54,13 +56,14 @@ export function useSpeedMap(
         return remote.speedMap(Comlink.transfer(req, [...transfer, req.frameRpm.buffer as ArrayBuffer]));
       },
       () => speedMapTask({ ...base, power: power.power }),
+      owner,
     );
     job.promise.then(
       (value) => setMap({ kind: 'done', value }),
       (e: unknown) => !isAbort(e) && setMap({ kind: 'error', message: errorMessage(e) }),
     );
     return () => job.cancel();
-  }, [power, ready, frameRpm, rpmStep, wanted]);
+  }, [power, ready, frameRpm, rpmStep, wanted, owner]);
 
   return useMemo((): TaskState<SpeedRaster | null> => {
     if (map.kind !== 'done') return map;
@@ -83,6 +86,7 @@ export interface FindingsInput {
   expectedPattern: FamilyPattern | null;
   /** The channel is sound pressure in Pa: the tones are judged against the threshold of hearing */
   soundPressure: boolean;
+  owner: string;
 }
 
 /**
@@ -91,7 +95,7 @@ export interface FindingsInput {
  * Without a speed the frames' speeds are unknown (NaN): the carrier and its shifts are still found.
  */
 export function useFindings(input: FindingsInput): TaskState<InverterReport> {
-  const { power, ready, frameRpm, window, enbwBins, polePairs, orders, expectedPattern, soundPressure } = input;
+  const { power, ready, frameRpm, window, enbwBins, polePairs, orders, expectedPattern, soundPressure, owner } = input;
   const [state, setState] = useState<TaskState<InverterReport>>({ kind: 'idle' });
   const doneFor = useRef<MapPower | null>(null);
   useEffect(() => {
@@ -113,6 +117,7 @@ export function useFindings(input: FindingsInput): TaskState<InverterReport> {
           return remote.inverter(Comlink.transfer(req, transfer));
         },
         () => analyseInverter({ ...base(), power: power.power }),
+        owner,
       );
       job = j;
       j.promise.then(
@@ -127,7 +132,7 @@ export function useFindings(input: FindingsInput): TaskState<InverterReport> {
       clearTimeout(timer);
       job?.cancel();
     };
-  }, [power, ready, frameRpm, window, enbwBins, polePairs, orders, expectedPattern, soundPressure]);
+  }, [power, ready, frameRpm, window, enbwBins, polePairs, orders, expectedPattern, soundPressure, owner]);
   return state;
 }
 
@@ -148,6 +153,7 @@ export interface GuideTracksInput {
   refRms: number;
   /** The map channel's samples as read and their calibration: crossing points are filtered from them */
   channel: { samples: Float32Array | null; scale: number };
+  owner: string;
 }
 
 /** The map channel in its units, for the Vold–Kalman filter at crossings (a copy: it is sent to the worker). */
@@ -159,7 +165,7 @@ const calibrated = (c: { samples: Float32Array | null; scale: number }) => (c.sa
  */
 export function useGuideTracks(input: GuideTracksInput): TaskState<GuideTrack[]> {
   const [state, setState] = useState<TaskState<GuideTrack[]>>({ kind: 'idle' });
-  const { power, ready, lines, shown, window, enbwBins, against, frameRpm, rpmStep, weighting, refRms, channel } = input;
+  const { power, ready, lines, shown, window, enbwBins, against, frameRpm, rpmStep, weighting, refRms, channel, owner } = input;
   useEffect(() => {
     if (!ready || !power || lines.length === 0) {
       setState({ kind: 'idle' });
@@ -177,6 +183,7 @@ export function useGuideTracks(input: GuideTracksInput): TaskState<GuideTrack[]>
           return remote.tracks(Comlink.transfer(req, transfer));
         },
         () => guideTracks({ ...base, power: power.power, samples: calibrated(channel) }),
+        owner,
       );
       job = j;
       j.promise.then(
@@ -188,6 +195,6 @@ export function useGuideTracks(input: GuideTracksInput): TaskState<GuideTrack[]>
       clearTimeout(timer);
       job?.cancel();
     };
-  }, [power, ready, lines, shown, window, enbwBins, against, frameRpm, rpmStep, weighting, refRms, channel]);
+  }, [power, ready, lines, shown, window, enbwBins, against, frameRpm, rpmStep, weighting, refRms, channel, owner]);
   return state;
 }

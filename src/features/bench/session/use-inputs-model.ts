@@ -20,7 +20,7 @@ export function useInputsModel(recording: OpenRecording, restore: BenchRestore |
   const speedSource: SpeedSource = speedChoice ?? defaultSpeedSource(setup);
   const [poles, setPoles] = useState<PoleChoice>(restore?.poles ?? { mode: 'inferred' });
   const channels = useMemo(() => ({ indices: channelIndices, samples }), [channelIndices, samples]);
-  const speed = useSpeedCurve(speedSource, setup, channels, header.sampleRateHz, header.durationS);
+  const speed = useSpeedCurve(speedSource, setup, channels, header.sampleRateHz, header.durationS, fingerprint);
   const typedPoles = poles.mode === 'typed' && Number.isInteger(poles.value) && poles.value >= 1 ? poles.value : null;
   return {
     state: { setup, setupSave: saveState, speedSource, speedAutomatic: speedChoice === null, speedSaveError, poles, typedPoles, speed },

@@ -29,7 +29,7 @@ function extentsOf(raster: MapRaster, minX: number): Extents {
  * The map of one channel: its settings, the calibrated levels computed in the pool, the level range
  * shown, the speed of each frame, and the map against speed when it is asked for.
  */
-export function useMapModel(recording: OpenRecording, setup: ChannelSetup[], speed: SpeedState, restore: BenchRestore | undefined) {
+export function useMapModel(recording: OpenRecording, setup: ChannelSetup[], speed: SpeedState, restore: BenchRestore | undefined, followedAgainst?: 'time' | 'speed') {
   const { header, samples: channelSamples, channelIndices } = recording.decoded;
   const { settings, setters } = useMapSettings(header.frames, setup, restore);
   const channelSetup = setup.find((c) => c.index === settings.channel) ?? setup[0];
@@ -69,8 +69,8 @@ export function useMapModel(recording: OpenRecording, setup: ChannelSetup[], spe
   const frameRpm = useMemo(() => (speed.kind === 'done' && frameTimes ? rpmAtTimes(speed.curve, frameTimes) : null), [speed, frameTimes]);
   const rpmStep = useMemo(() => (frameRpm ? speedStep(frameRpm) : 50), [frameRpm]);
   const [againstChoice, setAgainst] = useState<'time' | 'speed'>(restore?.against ?? 'time');
-  const against: 'time' | 'speed' = againstChoice === 'speed' && frameRpm ? 'speed' : 'time';
-  const speedMap = useSpeedMap(map.power, done, frameRpm, rpmStep, settings.weighting, reference.refRms, against === 'speed');
+  const against: 'time' | 'speed' = (followedAgainst ?? againstChoice) === 'speed' && frameRpm ? 'speed' : 'time';
+  const speedMap = useSpeedMap(map.power, done, frameRpm, rpmStep, settings.weighting, reference.refRms, against === 'speed', recording.entry.fingerprint);
   const speedRaster = speedMap.kind === 'done' ? speedMap.value : null;
   const raster = against === 'speed' ? (speedRaster?.raster ?? null) : map.raster;
   const extents = useMemo(

@@ -33,7 +33,7 @@ function summary(curve: SpeedCurve): SpeedState {
  * (on a copy of the calibrated channel), a typed ramp here. Typed values are taken a moment after the
  * last key.
  */
-export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channels: { indices: number[]; samples: Float32Array[] }, fsHz: number, durationS: number) {
+export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channels: { indices: number[]; samples: Float32Array[] }, fsHz: number, durationS: number, owner = '') {
   const [state, setState] = useState<SpeedState>({ kind: 'none' });
   const problem = speedSourceProblem(source, setup);
   const channel = source.kind === 'tacho' || source.kind === 'channel' ? setup.find((c) => c.index === source.channel) : undefined;
@@ -81,6 +81,7 @@ export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channe
           return remote.speed(Comlink.transfer(req, [req.samples.buffer as ArrayBuffer]));
         },
         () => speedTask(make()),
+        owner,
       );
       job = j;
       j.promise.then(
@@ -94,7 +95,7 @@ export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channe
       clearTimeout(timer);
       job?.cancel();
     };
-  }, [key, problem, channels, fsHz, durationS]);
+  }, [key, problem, channels, fsHz, durationS, owner]);
 
   return state;
 }

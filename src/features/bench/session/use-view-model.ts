@@ -42,6 +42,8 @@ export interface ViewInputs {
   report: InverterReport | null;
   detectedHz: Float64Array | null;
   dispatchGuides: (a: GuidesAction) => void;
+  /** Following another session: its swap, and its zoom (which this one leaves alone) */
+  follow?: { swapped: boolean };
 }
 
 /**
@@ -49,8 +51,9 @@ export interface ViewInputs {
  * a pinned moment, the marks placed and not yet saved, and a note on what a gesture did.
  */
 export function useViewModel(inp: ViewInputs) {
-  const { live, fromView, raster, layout, power, extents, against, frameRpm, rpmStep, windowName, report, detectedHz, dispatchGuides } = inp;
+  const { live, fromView, raster, layout, power, extents, against, frameRpm, rpmStep, windowName, report, detectedHz, dispatchGuides, follow } = inp;
   const restore = fromView?.restore;
+  const following = follow !== undefined;
 
   // Another map of the same span (a new window, colours, calibration) keeps the view; another span starts
   // whole. A saved view's zoom waits for the first map against the same axis (speed comes after time).
@@ -60,6 +63,7 @@ export function useViewModel(inp: ViewInputs) {
   const latest = useRef({ extents, against });
   latest.current = { extents, against };
   useEffect(() => {
+    if (following) return;
     const { extents: e, against: a } = latest.current;
     if (!e) {
       live.viewport.set(null);
@@ -71,7 +75,7 @@ export function useViewModel(inp: ViewInputs) {
     if (zoom) savedZoom.current = null;
     live.viewport.set(zoom ? clampViewport(zoom, e) : v && viewKey.current === extentsKey ? clampViewport(v, e) : fullView(e));
     viewKey.current = extentsKey;
-  }, [extentsKey, live, restore?.against]);
+  }, [extentsKey, live, restore?.against, following]);
   const setView = useCallback(
     (f: (e: Extents) => Viewport) => {
       if (extents) live.viewport.set(f(extents));
@@ -79,7 +83,8 @@ export function useViewModel(inp: ViewInputs) {
     [extents, live],
   );
 
-  const [swapped, setSwapped] = useState(restore?.swapped ?? false);
+  const [ownSwapped, setSwapped] = useState(restore?.swapped ?? false);
+  const swapped = follow?.swapped ?? ownSwapped;
   const [mode, setMode] = useState<MapMode>('pan');
   const [pinnedTimeS, setPinnedTimeS] = useState<number | null>(null);
   const [help, setHelp] = useState(false);

@@ -1,0 +1,153 @@
+import { useCallback, useEffect, useMemo, useState } from 'react';
+import { Notice } from '../../../components/ui/notice';
+import { carrierSummary } from '../analysis/findings-text';
+import { MapView } from '../components/map-view';
+import { BenchPanel, toolButtonClass } from '../components/bench-panel';
+import type { OpenRecording } from '../hooks/use-recording-reader';
+import { BenchSession, useBench, useBenchActions, useBenchLive, type BenchState, type FollowedView } from '../session/bench-session';
+import type { BenchStores } from '../session/live-stores';
+import type { BenchRestore } from '../view-state/view-restore';
+import { useComparedRuns } from './use-compared-runs';
+import { useWorkspace } from './workspace';
+
+/** The baseline's settings as a compared run starts from them (its own speed source and pole pairs). */
+function startFrom(s: BenchState, live: BenchStores): BenchRestore {
+  return {
+    channelIndex: s.settings.channel,
+    window: s.settings.windowName,
+    blockSize: s.settings.blockSize,
+    overlap: s.settings.overlap,
+    weighting: s.settings.weighting,
+    colours: s.settings.colours,
+    topDb: s.topDb,
+    rangeDb: s.rangeDb,
+    against: s.against,
+    swapped: s.swapped,
+    viewport: live.viewport.get() ?? { x: [0, 1], f: [0, 1] },
+    guides: s.guides,
+    poles: { mode: 'inferred' },
+    speedSource: null,
+  };
+}
+
+/**
+ * The runs compared with the open recording (the baseline): each a session of its own that follows
+ * the baseline's guides, axes, zoom and pointer, shown as a map with the baseline's colour range.
+ */
+export function ComparedRuns({ fingerprints, onRemove }: { fingerprints: string[]; onRemove: (fingerprint: string) => void }) {
+  const runs = useComparedRuns(fingerprints);
+  const live = useBenchLive();
+  const baseline = useBench((s) => s);
+  const guides = useBench((s) => s.guides);
+  const against = useBench((s) => s.against);
+  const swapped = useBench((s) => s.swapped);
+  const follow = useMemo((): FollowedView => ({ guides, against, swapped }), [guides, against, swapped]);
+  const [start] = useState(() => startFrom(baseline, live));
+  return (
+    <div className="grid gap-4 @5xl:grid-cols-2" data-testid="compared-runs">
+      {runs.map((r) =>
+        r.kind === 'ready' ? (
+          <ComparedRun key={r.fingerprint} recording={r.recording} start={start} follow={follow} live={live} topDb={baseline.topDb} rangeDb={baseline.rangeDb} onRemove={() => onRemove(r.fingerprint)} />
+        ) : (
+          <BenchPanel key={r.fingerprint} title="Compared run">
+            {r.kind === 'reading' ? <p className="text-sm text-mist-500">Reading the recording…</p> : <Notice tone="error">{r.message}</Notice>}
+            <button type="button" className={`${toolButtonClass()} mt-2`} onClick={() => onRemove(r.fingerprint)}>
+              Remove
+            </button>
+          </BenchPanel>
+        ),
+      )}
+    </div>
+  );
+}
+
+function ComparedRun({
+  recording,
+  start,
+  follow,
+  live,
+  topDb,
+  rangeDb,
+  onRemove,
+}: {
+  recording: OpenRecording;
+  start: BenchRestore;
+  follow: FollowedView;
+  live: BenchStores;
+  topDb: number;
+  rangeDb: number;
+  onRemove: () => void;
+}) {
+  const workspace = useWorkspace();
+  const id = recording.entry.fingerprint;
+  const name = recording.entry.name;
+  useEffect(() => () => workspace.withdraw(id), [workspace, id]);
+  const publish = useCallback((state: BenchState) => workspace.publish({ id, name, baseline: false, state }), [workspace, id, name]);
+  return (
+    <BenchSession recording={recording} preferredProjectId={null} start={start} follow={follow} live={live} onPublish={publish}>
+      <RunMap name={name} topDb={topDb} rangeDb={rangeDb} onRemove={onRemove} />
+    </BenchSession>
+  );
+}
+
+/** A compared run's map: the same guides, zoom and pointer as the baseline's, and how far its analysis is. */
+function RunMap({ name, topDb, rangeDb, onRemove }: { name: string; topDb: number; rangeDb: number; onRemove: () => void }) {
+  const a = useBenchActions();
+  const live = useBenchLive();
+  const raster = useBench((s) => s.raster);
+  const lut = useBench((s) => s.lut);
+  const extents = useBench((s) => s.extents);
+  const against = useBench((s) => s.against);
+  const swapped = useBench((s) => s.swapped);
+  const lines = useBench((s) => s.lines);
+  const frameTimes = useBench((s) => s.frameTimes);
+  const frameRpm = useBench((s) => s.frameRpm);
+  const status = useBench((s) => s.map.status);
+  const report = useBench((s) => s.report);
+  const speedMap = useBench((s) => s.speedMap);
+  const percent = status.kind === 'computing' ? Math.round(status.fraction * 100) : null;
+  return (
+    <BenchPanel
+      title={name}
+      testId="compared-run"
+      actions={
+        <button type="button" className={toolButtonClass()} onClick={onRemove} aria-label={`Stop comparing ${name}`}>
+          Remove
+        </button>
+      }
+    >
+      <div className="relative h-72 overflow-hidden rounded-sm bg-ink-950 ring-1 ring-ink-800">
+        <MapView
+          raster={raster}
+          lut={lut}
+          topDb={topDb}
+          rangeDb={rangeDb}
+          extents={extents}
+          swapped={swapped}
+          against={against}
+          lines={lines}
+          frameTimes={frameTimes}
+          frameRpm={frameRpm}
+          pinnedX={null}
+          mode="pan"
+          stores={live}
+          markPainted={false}
+          probe={a.probe}
+          onPick={() => undefined}
+          onPin={() => undefined}
+          marks={[]}
+          onMark={() => undefined}
+          label={`Map of ${name}, on the baseline's zoom and guides`}
+        />
+        {against === 'speed' && speedMap.kind !== 'done' && (
+          <p className="pointer-events-none absolute inset-x-0 top-1/2 text-center text-sm text-mist-300" role="status">
+            {speedMap.kind === 'error' ? speedMap.message : 'Resampling the map against speed…'}
+          </p>
+        )}
+      </div>
+      <p className="mt-2 font-mono text-[11px] text-mist-500" data-testid="compared-run-status">
+        {percent !== null ? `computing the map, ${percent} %` : report ? carrierSummary(report) : status.kind === 'done' ? 'finding the carrier…' : ''}
+      </p>
+    </BenchPanel>
+  );
+}

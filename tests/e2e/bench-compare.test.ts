@@ -1,0 +1,59 @@
+/**
+ * Comparing runs on the Bench: the demo's run-up before and after the firmware change, opened together
+ * in one click. The changed run's map follows the baseline's zoom, the comparison shows the tracked
+ * family in both runs with the difference (the firmware lowers fc ± fe by 5 dB, invented for the demo),
+ * both carrier schedules, and the findings side by side.
+ */
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { demoRecordings } from '../../seeds/demo-recordings';
+import { launchBrowser, screenshot, signIn } from './browser';
+
+describe('comparing runs on the Bench (browser)', () => {
+  const baseUrl = inject('baseUrl');
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(() => browser?.close());
+
+  it('opens the two demo run-ups together, tracks a family in both with its difference, and compares the carriers and findings', async () => {
+    const page = await browser.newPage({ viewport: { width: 1600, height: 1100 } });
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await signIn(page, baseUrl, 'engineer@fanlight.test');
+    await page.waitForURL(`${baseUrl}/projects`);
+    await page.goto(`${baseUrl}/bench`);
+    const changed = demoRecordings.find((d) => d.comparesWith)!;
+    const baseline = demoRecordings.find((d) => d.file === changed.comparesWith)!;
+    await page.getByRole('button', { name: `Compare with ${baseline.title}` }).click();
+
+    // the baseline opens, the changed run joins it (and the address keeps the comparison)
+    const run = page.getByTestId('compared-run');
+    await expect.poll(() => run.count(), { timeout: 60_000 }).toBe(1);
+    await expect.poll(() => page.url(), { timeout: 30_000 }).toContain('with=');
+    const panel = page.getByTestId('compare-panel');
+    await expect.poll(() => panel.isVisible(), { timeout: 60_000 }).toBe(true);
+
+    // both carrier schedules are found: 8 → 12 kHz before, 10 → 12 kHz after
+    const carriers = page.getByTestId('compare-carriers');
+    await expect.poll(async () => (await carriers.textContent())?.replace(/\s/g, ''), { timeout: 90_000 }).toMatch(/Carrier8000Hz,then12000Hz.*Carrier10000Hz,then12000Hz/);
+    await expect.poll(() => page.getByTestId('compare-findings-row').count()).toBe(2);
+
+    // against speed, a carrier guide on the detected carrier: its first family is tracked in both runs
+    await page.getByRole('button', { name: 'Map against speed' }).click();
+    await page.keyboard.press('c');
+    const deltas = page.getByTestId('compare-deltas').locator('li');
+    await expect.poll(() => deltas.count(), { timeout: 90_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('compare-tracks-plot').isVisible()).toBe(true);
+    expect(await page.getByTestId('compare-delta-plot').isVisible()).toBe(true);
+    const label = await page.getByLabel('Track to compare').inputValue();
+    expect(label).toBeTruthy();
+    // fc − fe is 5 dB lower after the change
+    const delta = Number(await deltas.first().getAttribute('data-median-delta'));
+    expect(Math.abs(delta - -5)).toBeLessThan(1);
+    await screenshot(page, 'bench-compare');
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});

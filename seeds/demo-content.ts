@@ -14,6 +14,20 @@ import { SNAPSHOT_CONTENT_TYPE } from '../workers/io/snapshot-format';
 import { fingerprint } from '../workers/io/fingerprint';
 import { readRecordingHeader } from '../workers/io/decode-recording';
 import { demoRecordings, ensureDemoRecordings } from './demo-recordings';
+import { TargetRepository, type NewTarget } from '../server/repositories/target-repository';
+
+/** dB re 1 g on the inverter housing, Z-weighted (invented for the demo). */
+export const DEMO_TARGETS: NewTarget[] = [
+  {
+    track: 'family:1:-1',
+    weighting: 'Z',
+    points: [
+      [500, -25],
+      [12000, -21],
+    ],
+    label: 'fc − fe on the inverter housing, programme limit',
+  },
+];
 import { demoAccounts, demoProject } from './demo-scenario';
 import { DEMO_VIEW_TITLE, RUN_UP_FILE, demoMarks, demoSnapshot, demoThread, demoViewState } from './demo-view';
 
@@ -60,6 +74,13 @@ export async function seedDemoContent(db: Knex, demoDir: string): Promise<DemoCo
       recordingsRegistered++;
     }
     recordingIds.set(r.file, (await recordings.find(project.id, info.fingerprint))!.id);
+  }
+
+  // The programme's target for the first lower sideband on the housing (invented): the run-up of firmware A
+  // goes above it from about 4200 rpm, firmware B stays under it.
+  const targets = new TargetRepository(db);
+  if ((await targets.list(project.id)).length === 0) {
+    await targets.upsertPoints(project.id, DEMO_TARGETS, leadId);
   }
 
   if (await db('views').where({ project_id: project.id, title: DEMO_VIEW_TITLE }).first('id')) return { recordingsRegistered, viewCreated: false };

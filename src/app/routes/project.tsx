@@ -8,6 +8,7 @@ import { ActivityList } from '../../features/projects/components/activity-list';
 import { MembersSection } from '../../features/projects/components/members-section';
 import { ProjectHeader } from '../../features/projects/components/project-header';
 import { RecordingsSection } from '../../features/projects/components/recordings-section';
+import { TargetsSection } from '../../features/projects/components/targets-section';
 import { useViewCountsByRecording } from '../../features/views/api/views';
 import { ViewsSection } from '../../features/views/components/views-section';
 import { ApiError } from '../../lib/api-client';
@@ -41,6 +42,7 @@ function Project({ id }: { id: number }) {
       <div className="flex flex-col gap-6">
         <ViewsSection projectId={id} isLead={project.role === 'lead'} />
         <RecordingsSection projectId={id} viewCounts={viewCounts} demoFiles={demoFiles} />
+        <TargetsSection projectId={id} mayEdit={!project.archived && (project.role === 'engineer' || project.role === 'lead')} />
       </div>
       <div className="mt-6 grid items-start gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <MembersSection projectId={id} isLead={project.role === 'lead'} />

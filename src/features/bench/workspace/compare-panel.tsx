@@ -7,6 +7,11 @@ import { plotAxis, UPlotChart } from '../components/uplot-chart';
 import { dbUnit } from '../map/level-reference';
 import { useBench, useBenchActions } from '../session/bench-session';
 import { compareCarriers, compareTrack } from './comparison';
+import { ExceedanceList, runExceedances, targetFor, targetOnGrid, type RunExceedance } from './target-check';
+import { useComparisonTargets } from './use-comparison-targets';
+import { palette } from '../../../config/theme';
+import { frameAtRpm } from '../analysis/spectra';
+import { lineHz } from '../map/guides';
 import { FindingsTable } from './findings-table';
 import { useWorkspaceRuns } from './workspace';
 
@@ -36,6 +41,10 @@ export function ComparePanel() {
   const weighting = useBench((s) => s.settings.weighting);
   const reference = useBench((s) => s.reference);
   const [chosen, setChosen] = useState<string | null>(null);
+  const preferredProjectId = useBench((s) => s.preferredProjectId);
+  const frameRpm = useBench((s) => s.frameRpm);
+  const layout = useBench((s) => s.map.layout);
+  const goals = useComparisonTargets(preferredProjectId);
   const line = selected.find((l) => l.id === chosen) ?? selected[0] ?? null;
   const names = runs.map((r) => r.name);
   const unit = `${dbUnit(weighting)} re ${reference.label}`;
@@ -47,12 +56,26 @@ export function ComparePanel() {
     return compareTrack(tracks, rpmStep);
   }, [runs, line, against, rpmStep]);
 
+  const target = targetFor(goals.targets, line, weighting);
+  const found = useMemo(() => (track && target ? runExceedances(names, track, target) : []), [track, target, names.join('\n')]); // eslint-disable-line react-hooks/exhaustive-deps -- the names' text
+  const showExceedance = (e: RunExceedance) => {
+    if (!line || !frameRpm || !layout) return;
+    const frame = frameAtRpm(frameRpm, e.atRpm);
+    const hz = lineHz(line, frame);
+    if (Number.isFinite(hz)) a.goTo({ timeS: layout.t0S + frame * layout.hopS, fromHz: hz * 0.85, toHz: hz * 1.15 });
+  };
+
   const carriers = useMemo(() => compareCarriers(runs.map((r) => ({ frameRpm: r.state.frameRpm, carrierHz: r.state.report?.carrier.hz ?? null })), rpmStep), [runs, rpmStep]);
 
+  const withTarget = target !== null;
   const levelOptions = useMemo(
-    () => ({ scales: { x: { time: false } }, axes: [plotAxis('Speed (rpm)', { values: rpmTicks }), plotAxis(unit, { size: 48 })], series: runSeries(names) }),
+    () => ({
+      scales: { x: { time: false } },
+      axes: [plotAxis('Speed (rpm)', { values: rpmTicks }), plotAxis(unit, { size: 48 })],
+      series: [...runSeries(names), ...(withTarget ? [{ label: 'target', stroke: palette.danger, width: 1.5, dash: [6, 4] }] : [])],
+    }),
     // eslint-disable-next-line react-hooks/exhaustive-deps -- the names' text, not the array, makes new options
-    [unit, names.join('\n')],
+    [unit, names.join('\n'), withTarget],
   );
   const deltaOptions = useMemo(
     () => ({ scales: { x: { time: false } }, axes: [plotAxis('Speed (rpm)', { values: rpmTicks }), plotAxis('Δ dB', { size: 48 })], series: runSeries(names, true) }),
@@ -103,7 +126,12 @@ export function ComparePanel() {
             {track ? (
               <div className="grid gap-3 @3xl:grid-cols-2">
                 <div className="h-56">
-                  <UPlotChart options={levelOptions} data={[Array.from(track.grid), ...track.db.map(values)]} label={`${line.label} in every run against speed`} testId="compare-tracks-plot" />
+                  <UPlotChart
+                    options={levelOptions}
+                    data={[Array.from(track.grid), ...track.db.map(values), ...(target ? [values(targetOnGrid(track.grid, target.points))] : [])]}
+                    label={`${line.label} in every run against speed${target ? ', with its target' : ''}`}
+                    testId="compare-tracks-plot"
+                  />
                 </div>
                 <div className="h-56">
                   <UPlotChart options={deltaOptions} data={[Array.from(track.grid), ...track.delta.map(values)]} label={`${line.label}: each run less the baseline`} testId="compare-delta-plot" />
@@ -124,6 +152,8 @@ export function ComparePanel() {
             ) : (
               <p className="text-mist-500">Tracking {line.label} in every run…</p>
             )}
+            <TargetLine goals={goals} lineLabel={line.label} weighting={weighting} hasTarget={target !== null} />
+            {track && target && <ExceedanceList items={found} targetName={line.label} onShow={showExceedance} />}
           </section>
         )}
         <section aria-label="Carrier schedules" className="flex flex-col gap-2">
@@ -142,5 +172,23 @@ export function ComparePanel() {
         <FindingsTable runs={runs} reference={reference} />
       </div>
     </BenchPanel>
+  );
+}
+
+/** Which project's targets are checked, and whether this track has one at this weighting. */
+function TargetLine({ goals, lineLabel, weighting, hasTarget }: { goals: ReturnType<typeof useComparisonTargets>; lineLabel: string; weighting: string; hasTarget: boolean }) {
+  if (goals.projects.length === 0) return null;
+  return (
+    <p className="flex flex-wrap items-center gap-2 text-mist-500">
+      Targets of
+      <select className={smallSelectClass} aria-label="Project whose targets are checked" value={goals.projectId ?? ''} onChange={(e) => goals.setProjectId(Number(e.target.value))}>
+        {goals.projects.map((p) => (
+          <option key={p.id} value={p.id}>
+            {p.name}
+          </option>
+        ))}
+      </select>
+      {goals.error ? <span className="text-danger">{goals.error.message}</span> : hasTarget ? <span>the target of {lineLabel} ({weighting}) is drawn dashed.</span> : <span>no target for {lineLabel} at weighting {weighting}.</span>}
+    </p>
   );
 }

@@ -141,6 +141,35 @@ export const speedSourceState = z.discriminatedUnion(
   { error: 'The speed source is tacho, channel, ramp or none.' },
 );
 
+const comparisonLevels = z.array(finite.nullable()).max(4000, { error: 'At most 4000 points on the speed grid.' });
+const runText = z.string().max(300);
+
+/**
+ * Several runs compared (the Bench's workspace): the runs (the baseline first), one guide's level of
+ * each on a common speed grid, the target it was checked against, every exceedance, each run's carrier
+ * against speed and its findings in words. The view's map is the baseline's.
+ */
+export const comparisonState = z.looseObject({
+  runs: z
+    .array(z.looseObject({ name: z.string().trim().min(1).max(255), fingerprint: z.string().regex(/^[0-9a-f]{16,128}$/i, { error: 'A run is named by its fingerprint.' }) }))
+    .min(2, { error: 'A comparison has at least two runs.' })
+    .max(6, { error: 'At most six runs.' }),
+  track: z.looseObject({ label: z.string().trim().min(1).max(60), guide: guideRef }).nullable(),
+  unit: z.string().max(40),
+  rpm: z.array(finite).max(4000),
+  /** Per run, the track's level on the grid, dB (null outside the run's speed range) */
+  levels: z.array(comparisonLevels).max(6),
+  /** The target on the grid, dB (null outside it), when the track has one */
+  target: comparisonLevels.nullable(),
+  exceedances: z
+    .array(z.looseObject({ run: z.string().max(255), fromRpm: finite, toRpm: finite, maxExcessDb: finite, atRpm: finite }))
+    .max(200),
+  carrierRpm: z.array(finite).max(4000),
+  carrierHz: z.array(comparisonLevels).max(6),
+  findings: z.array(z.looseObject({ carrier: runText, shifts: runText, spread: runText, poles: runText, families: runText })).max(6),
+});
+export type ComparisonState = z.infer<typeof comparisonState>;
+
 export const viewStateV1 = z.looseObject({
   stateVersion: z.literal(1),
   processing: processingSettings,
@@ -156,6 +185,8 @@ export const viewStateV1 = z.looseObject({
   speedSource: speedSourceState.optional(),
   /** Whether `polePairs` was typed on the Bench or inferred from the sideband spacing. */
   polePairsSource: z.enum(['typed', 'inferred']).optional(),
+  /** Saved from a comparison of runs (absent in a view of one run). */
+  comparison: comparisonState.optional(),
 });
 export type ViewStateV1 = z.infer<typeof viewStateV1>;
 

@@ -418,3 +418,73 @@ describe('restart safety', () => {
     }
   });
 });
+
+describe('a saved comparison of runs', () => {
+  // a comparison as the Bench saves it: two runs, one family on a 3-point grid with its target
+  const comparison = {
+    runs: [
+      { name: 'before.wav', fingerprint: 'a'.repeat(64) },
+      { name: 'after.wav', fingerprint: 'b'.repeat(64) },
+    ],
+    track: { label: 'fc−fe', guide: { kind: 'family', m: 1, n: -1 } },
+    unit: 'dB re 1 g',
+    rpm: [1025, 1075, 1125],
+    levels: [
+      [-24, -23.5, null],
+      [-29, -28.5, -28],
+    ],
+    target: [-24.2, -24.1, -24],
+    exceedances: [{ run: 'before.wav', fromRpm: 1040, toRpm: 1075, maxExcessDb: 0.6, atRpm: 1075 }],
+    carrierRpm: [1025, 1075, 1125],
+    carrierHz: [
+      [8000, 8000, 12000],
+      [10000, 10000, 10000],
+    ],
+    findings: [
+      { carrier: 'Carrier 8 000 Hz, then 12 000 Hz', shifts: '8 000 → 12 000 Hz at 1 100 rpm', spread: 'steady', poles: '4', families: 'fc−fe −24.0 dB' },
+      { carrier: 'Carrier 10 000 Hz', shifts: 'none', spread: 'steady', poles: '4', families: 'fc−fe −28.0 dB' },
+    ],
+  };
+
+  it('is saved and read back whole, by a new app instance too (after a restart)', async () => {
+    const first = startTestApp();
+    const engineer = await makeUser(first.db, 'compare-engineer', 'staff');
+    const viewer = await makeUser(first.db, 'compare-viewer', 'guest');
+    const projectId = await makeProject(first.db, [
+      { id: engineer.id, role: 'engineer' },
+      { id: viewer.id, role: 'viewer' },
+    ]);
+    let viewId: number;
+    try {
+      const s = await sessionFor(first.app, engineer.email);
+      const saved = await s.request('POST', `/api/projects/${projectId}/views`, { title: 'Firmware A against B', state: sampleState({ comparison }) });
+      expect(saved.status).toBe(201);
+      viewId = saved.body.view.id;
+      expect(saved.body.view.state.comparison).toEqual(comparison);
+    } finally {
+      await first.close();
+    }
+    const second = startTestApp();
+    try {
+      const s = await sessionFor(second.app, viewer.email);
+      const read = await s.request('GET', `/api/views/${viewId}`);
+      expect(read.status).toBe(200);
+      expect(read.body.view.state.comparison).toEqual(comparison);
+    } finally {
+      await second.close();
+    }
+  });
+
+  it('answers 400 naming the field of a comparison with one run, or a run not named by its fingerprint', async () => {
+    const x = await team();
+    const one = await x.engineer.request('POST', `/api/projects/${x.projectId}/views`, { title: 'one run', state: sampleState({ comparison: { ...comparison, runs: comparison.runs.slice(0, 1) } }) });
+    expect(one.status).toBe(400);
+    expect(Object.keys(one.body.error.fields)).toContain('state.comparison.runs');
+    const unnamed = await x.engineer.request('POST', `/api/projects/${x.projectId}/views`, {
+      title: 'bad run',
+      state: sampleState({ comparison: { ...comparison, runs: [comparison.runs[0], { name: 'x.wav', fingerprint: 'not hex' }] } }),
+    });
+    expect(unnamed.status).toBe(400);
+    expect(Object.keys(unnamed.body.error.fields)).toContain('state.comparison.runs.1.fingerprint');
+  });
+});

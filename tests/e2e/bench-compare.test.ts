@@ -54,6 +54,12 @@ describe('comparing runs on the Bench (browser)', () => {
     const delta = Number(await deltas.first().getAttribute('data-median-delta'));
     expect(Math.abs(delta - -5)).toBeLessThan(1);
 
+    // the difference map of the changed run against the baseline, on the speeds both cover
+    await run.getByRole('button', { name: 'Difference' }).click();
+    const note = page.getByTestId('difference-map-note');
+    await expect.poll(() => note.isVisible(), { timeout: 20_000 }).toBe(true);
+    expect(await note.textContent()).toMatch(/−20 dB .* \+20 dB/);
+
     // the demo project's target for fc − fe (Z): the baseline goes above it from about 4200 rpm (seeded:
     // −25 dB re 1 g at 500 rpm rising to −21 at 12 000 rpm; `analyze compare` on the same files puts the
     // crossing at 4172 rpm), the changed run (5 dB lower) stays more than 1 dB under it
@@ -70,7 +76,32 @@ describe('comparing runs on the Bench (browser)', () => {
     await exceedance.first().click();
     await expect.poll(async () => Number(await page.getByTestId('map-view-range').getAttribute('data-x0'))).toBeGreaterThan(3000);
     await screenshot(page, 'bench-compare');
+
+    // saved as a view: the comparison travels with it, without any raw file
+    const title = `Firmware A against B, ${Date.now()}`;
+    await page.getByLabel('View title').fill(title);
+    await page.getByLabel('Save into project').selectOption({ label: demoProject.name });
+    await page.getByRole('button', { name: 'Save view' }).click();
+    await expect.poll(() => page.getByTestId('saved-view-link').isVisible(), { timeout: 20_000 }).toBe(true);
     expect(errors).toEqual([]);
     await page.close();
+
+    // the viewer finds it on the project page and sees the runs compared
+    const viewer = await browser.newPage({ viewport: { width: 1400, height: 1100 } });
+    await signIn(viewer, baseUrl, 'viewer@fanlight.test');
+    await viewer.waitForURL(`${baseUrl}/projects`);
+    await viewer.getByRole('link', { name: demoProject.name }).first().click();
+    await viewer.getByLabel('Filter views').fill(title);
+    await viewer.getByTestId('project-views').getByRole('link', { name: title }).click();
+    const comparison = viewer.getByTestId('view-comparison');
+    await expect.poll(() => comparison.isVisible(), { timeout: 20_000 }).toBe(true);
+    expect(await viewer.getByTestId('view-comparison-levels').isVisible()).toBe(true);
+    expect(await viewer.getByTestId('view-comparison-deltas').isVisible()).toBe(true);
+    expect(await viewer.getByTestId('view-comparison-carriers').isVisible()).toBe(true);
+    expect(await viewer.getByTestId('view-comparison-exceedances').textContent()).toContain(baseline.file);
+    const findings = await viewer.getByTestId('view-comparison-findings').textContent();
+    expect(findings?.replace(/\s/g, '')).toMatch(/Carrier8000Hz,then12000Hz.*Carrier10000Hz,then12000Hz/);
+    await screenshot(viewer, 'view-comparison');
+    await viewer.close();
   });
 });

@@ -154,3 +154,42 @@ export function medianOnSpeedGrid(frameRpm: ArrayLike<number>, values: ArrayLike
   });
   return out;
 }
+
+/** A map against speed as speed-map.ts makes it: rpm bins × frequency bins of mean squares. */
+export interface SpeedGridMap {
+  rpm: Float64Array;
+  power: Float32Array;
+  bins: number;
+}
+
+/**
+ * A run's map less the baseline's, in dB, over the speeds both cover: for each of the baseline's rpm
+ * bins there, the run's bin nearest in speed (within `maxGapRpm`), frequency bin by frequency bin.
+ * A cell either map lacks (no frame, or no power) is 0 dB: no difference shown. Both maps must have the
+ * same frequency bins (the same sample rate and block).
+ */
+export function speedMapDifference(base: SpeedGridMap, run: SpeedGridMap, maxGapRpm: number): { rpm: Float64Array; diffDb: Float32Array; bins: number } {
+  if (base.bins !== run.bins) throw new RangeError(`The runs' maps have different frequency bins (${base.bins} and ${run.bins}): compare runs with the same sample rate and block size.`);
+  const bins = base.bins;
+  // the baseline's bins with a run bin within reach, and that bin
+  const pairs: [number, number][] = [];
+  let j = 0;
+  for (let i = 0; i < base.rpm.length; i++) {
+    const r = base.rpm[i];
+    while (j + 1 < run.rpm.length && Math.abs(run.rpm[j + 1] - r) <= Math.abs(run.rpm[j] - r)) j++;
+    if (Math.abs(run.rpm[j] - r) <= maxGapRpm) pairs.push([i, j]);
+  }
+  const diffDb = new Float32Array(pairs.length * bins);
+  pairs.forEach(([i, jj], k) => {
+    const a = i * bins;
+    const b = jj * bins;
+    const out = k * bins;
+    for (let f = 0; f < bins; f++) {
+      const p0 = base.power[a + f];
+      const p1 = run.power[b + f];
+      diffDb[out + f] = p0 > 0 && p1 > 0 ? 10 * Math.log10(p1 / p0) : 0;
+    }
+  });
+  const rows = pairs.map(([i]) => i);
+  return { rpm: Float64Array.from(rows, (i) => base.rpm[i]), diffDb, bins };
+}

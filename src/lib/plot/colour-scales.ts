@@ -113,3 +113,25 @@ export const isColourScale = (name: string): name is ColourScaleName =>
 
 /** The view's scale, or the first one when the view names a scale this client does not have. */
 export const scaleOrDefault = (name: string): ColourScaleName => (isColourScale(name) ? name : colourScaleNames[0]);
+
+let diverging: Uint8Array | null = null;
+
+/**
+ * A diverging scale for level differences, centred on entry 128 (0 dB): a dark neutral there, rising in
+ * lightness evenly to a cool blue at entry 0 (quieter) and a warm amber at 255 (louder), so the size of a
+ * difference reads the same on either side (the same CIELAB construction as the other scales, ours).
+ */
+export function divergingLut(): Uint8Array {
+  if (diverging) return diverging;
+  const centre: Lab = [22, 0, 0];
+  const cool: Lab = [86, -18, -42];
+  const warm: Lab = [86, 22, 72];
+  const lut = new Uint8Array(256 * 3);
+  for (let i = 0; i < 256; i++) {
+    const u = Math.abs(i - 127.5) / 127.5;
+    const end = i < 128 ? cool : warm;
+    lut.set(labToSrgb([centre[0] + u * (end[0] - centre[0]), u * end[1], u * end[2]]), i * 3);
+  }
+  diverging = lut;
+  return lut;
+}

@@ -4,7 +4,7 @@
  * linear interpolation in dB, crossings of the 0 dB excess interpolated linearly).
  */
 import { describe, expect, it } from 'vitest';
-import { deltaDb, exceedances, levelsDb, medianOnSpeedGrid, onSpeedGrid, speedGrid } from '../../../workers/dsp/compare';
+import { deltaDb, exceedances, levelsDb, medianOnSpeedGrid, onSpeedGrid, speedGrid, speedMapDifference } from '../../../workers/dsp/compare';
 import { targetAt } from '../../../workers/io/target-csv';
 
 describe('the speed grid', () => {
@@ -81,5 +81,22 @@ describe('exceedances of a target', () => {
     expect(e.fromRpm).toBeCloseTo(1050, 9);
     expect(e.toRpm).toBe(1200);
     expect(e.maxExcessDb).toBe(5);
+  });
+});
+
+describe('the difference of two maps against speed', () => {
+  it('is run − baseline in dB over the speeds both cover, bin by bin (10·lg of the power ratio)', () => {
+    const base = { rpm: Float64Array.from([1000, 1100, 1200, 1300]), bins: 2, power: Float32Array.from([1, 1, 1, 2, 1, 4, 1, 8]) };
+    // the run starts later and sits 5 rpm off the baseline's bins; its power doubles (+3.01 dB) and holds
+    const run = { rpm: Float64Array.from([1105, 1205, 1305, 1405]), bins: 2, power: Float32Array.from([2, 4, 2, 8, 2, 16, 2, 32]) };
+    const d = speedMapDifference(base, run, 50);
+    expect(Array.from(d.rpm)).toEqual([1100, 1200, 1300]);
+    for (let k = 0; k < d.diffDb.length; k++) expect(d.diffDb[k]).toBeCloseTo(10 * Math.log10(2), 5);
+  });
+
+  it('refuses maps with different frequency bins', () => {
+    const a = { rpm: Float64Array.from([1000]), bins: 2, power: new Float32Array(2) };
+    const b = { rpm: Float64Array.from([1000]), bins: 3, power: new Float32Array(3) };
+    expect(() => speedMapDifference(a, b, 50)).toThrow(/different frequency bins/);
   });
 });

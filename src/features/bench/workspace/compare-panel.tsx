@@ -1,19 +1,16 @@
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import type uPlot from 'uplot';
 import { seriesColours } from '../../../config/theme';
 import { carrierSummary, groupDigits } from '../analysis/findings-text';
 import { BenchPanel, smallSelectClass, toolButtonClass } from '../components/bench-panel';
 import { plotAxis, UPlotChart } from '../components/uplot-chart';
-import { dbUnit } from '../map/level-reference';
 import { useBench, useBenchActions } from '../session/bench-session';
-import { compareCarriers, compareTrack } from './comparison';
-import { ExceedanceList, runExceedances, targetFor, targetOnGrid, type RunExceedance } from './target-check';
-import { useComparisonTargets } from './use-comparison-targets';
+import { ExceedanceList, targetOnGrid, type RunExceedance } from './target-check';
+import { useComparisonSummary } from './use-comparison-summary';
 import { palette } from '../../../config/theme';
 import { frameAtRpm } from '../analysis/spectra';
 import { lineHz } from '../map/guides';
 import { FindingsTable } from './findings-table';
-import { useWorkspaceRuns } from './workspace';
 
 function medianOf(v: Float64Array): number {
   const s = Array.from(v).filter(Number.isFinite).sort((a, b) => a - b);
@@ -33,39 +30,18 @@ function runSeries(names: string[], dashedFirst = false): uPlot.Series[] {
  */
 export function ComparePanel() {
   const a = useBenchActions();
-  const runs = useWorkspaceRuns();
-  const against = useBench((s) => s.against);
+  const summary = useComparisonSummary();
+  const { runs, names, against, selected, line, rpmStep, unit, track, target, found, carriers, goals } = summary;
   const speedKnown = useBench((s) => s.frameRpm !== null);
-  const selected = useBench((s) => s.selected);
-  const rpmStep = useBench((s) => s.rpmStep);
-  const weighting = useBench((s) => s.settings.weighting);
-  const reference = useBench((s) => s.reference);
-  const [chosen, setChosen] = useState<string | null>(null);
-  const preferredProjectId = useBench((s) => s.preferredProjectId);
   const frameRpm = useBench((s) => s.frameRpm);
   const layout = useBench((s) => s.map.layout);
-  const goals = useComparisonTargets(preferredProjectId);
-  const line = selected.find((l) => l.id === chosen) ?? selected[0] ?? null;
-  const names = runs.map((r) => r.name);
-  const unit = `${dbUnit(weighting)} re ${reference.label}`;
-
-  const track = useMemo(() => {
-    if (!line || against !== 'speed') return null;
-    const tracks = runs.map((r) => (r.state.tracks.kind === 'done' ? (r.state.tracks.value.find((t) => t.id === line.id) ?? null) : null));
-    if (tracks.some((t) => t === null)) return null;
-    return compareTrack(tracks, rpmStep);
-  }, [runs, line, against, rpmStep]);
-
-  const target = targetFor(goals.targets, line, weighting);
-  const found = useMemo(() => (track && target ? runExceedances(names, track, target) : []), [track, target, names.join('\n')]); // eslint-disable-line react-hooks/exhaustive-deps -- the names' text
+  const weighting = useBench((s) => s.settings.weighting);
   const showExceedance = (e: RunExceedance) => {
     if (!line || !frameRpm || !layout) return;
     const frame = frameAtRpm(frameRpm, e.atRpm);
     const hz = lineHz(line, frame);
     if (Number.isFinite(hz)) a.goTo({ timeS: layout.t0S + frame * layout.hopS, fromHz: hz * 0.85, toHz: hz * 1.15 });
   };
-
-  const carriers = useMemo(() => compareCarriers(runs.map((r) => ({ frameRpm: r.state.frameRpm, carrierHz: r.state.report?.carrier.hz ?? null })), rpmStep), [runs, rpmStep]);
 
   const withTarget = target !== null;
   const levelOptions = useMemo(
@@ -114,7 +90,7 @@ export function ComparePanel() {
           <section aria-label="Tracks compared" className="flex flex-col gap-2">
             <div className="flex items-center gap-2">
               <span className="text-mist-300">Track</span>
-              <select className={smallSelectClass} aria-label="Track to compare" value={line.id} onChange={(e) => setChosen(e.target.value)}>
+              <select className={smallSelectClass} aria-label="Track to compare" value={line.id} onChange={(e) => summary.chooseTrack(e.target.value)}>
                 {selected.map((l) => (
                   <option key={l.id} value={l.id}>
                     {l.label}
@@ -169,14 +145,14 @@ export function ComparePanel() {
             {runs.map((r) => `${r.name}: ${r.state.report ? carrierSummary(r.state.report) : '…'}`).join(' · ')}
           </p>
         </section>
-        <FindingsTable runs={runs} reference={reference} />
+        <FindingsTable runs={runs} rows={summary.rows} referenceLabel={summary.referenceLabel} />
       </div>
     </BenchPanel>
   );
 }
 
 /** Which project's targets are checked, and whether this track has one at this weighting. */
-function TargetLine({ goals, lineLabel, weighting, hasTarget }: { goals: ReturnType<typeof useComparisonTargets>; lineLabel: string; weighting: string; hasTarget: boolean }) {
+function TargetLine({ goals, lineLabel, weighting, hasTarget }: { goals: ReturnType<typeof useComparisonSummary>['goals']; lineLabel: string; weighting: string; hasTarget: boolean }) {
   if (goals.projects.length === 0) return null;
   return (
     <p className="flex flex-wrap items-center gap-2 text-mist-500">

@@ -1,6 +1,9 @@
 import { useCallback, useEffect, useMemo, useState } from 'react';
 import { Notice } from '../../../components/ui/notice';
-import { carrierSummary } from '../analysis/findings-text';
+import { divergingLut } from '../../../lib/plot/colour-scales';
+import { carrierSummary, groupDigits } from '../analysis/findings-text';
+import type { Extents } from '../map/viewport';
+import { DIFFERENCE_RANGE_DB, differenceRaster } from './difference-raster';
 import { MapView } from '../components/map-view';
 import { BenchPanel, toolButtonClass } from '../components/bench-panel';
 import type { OpenRecording } from '../hooks/use-recording-reader';
@@ -8,7 +11,7 @@ import { BenchSession, useBench, useBenchActions, useBenchLive, type BenchState,
 import type { BenchStores } from '../session/live-stores';
 import type { BenchRestore } from '../view-state/view-restore';
 import { useComparedRuns } from './use-compared-runs';
-import { useWorkspace } from './workspace';
+import { useWorkspace, useWorkspaceRuns } from './workspace';
 
 /** The baseline's settings as a compared run starts from them (its own speed source and pole pairs). */
 function startFrom(s: BenchState, live: BenchStores): BenchRestore {
@@ -93,6 +96,9 @@ function ComparedRun({
 /** A compared run's map: the same guides, zoom and pointer as the baseline's, and how far its analysis is. */
 function RunMap({ name, topDb, rangeDb, onRemove }: { name: string; topDb: number; rangeDb: number; onRemove: () => void }) {
   const a = useBenchActions();
+  const [showDifference, setShowDifference] = useState(false);
+  const baselineSpeed = useWorkspaceRuns().find((r) => r.baseline)?.state.speedRaster ?? null;
+  const runSpeed = useBench((s) => s.speedRaster);
   const live = useBenchLive();
   const raster = useBench((s) => s.raster);
   const lut = useBench((s) => s.lut);
@@ -106,23 +112,46 @@ function RunMap({ name, topDb, rangeDb, onRemove }: { name: string; topDb: numbe
   const report = useBench((s) => s.report);
   const speedMap = useBench((s) => s.speedMap);
   const percent = status.kind === 'computing' ? Math.round(status.fraction * 100) : null;
+  const difference = useMemo(
+    () => (showDifference && against === 'speed' && baselineSpeed && runSpeed ? differenceRaster(baselineSpeed, runSpeed) : null),
+    [showDifference, against, baselineSpeed, runSpeed],
+  );
+  const diff = difference && 'raster' in difference ? difference : null;
+  const shown = diff ? diff.raster : raster;
+  const shownExtents = useMemo((): Extents | null => {
+    if (!diff) return extents;
+    const [f0, f1] = diff.raster.frequencySpanHz;
+    return { x: diff.raster.xSpan, f: [f0, f1], minX: 4 * diff.stepRpm, minF: 8 * diff.raster.grid.binHz * diff.raster.binsPerRow };
+  }, [diff, extents]);
   return (
     <BenchPanel
       title={name}
       testId="compared-run"
       actions={
-        <button type="button" className={toolButtonClass()} onClick={onRemove} aria-label={`Stop comparing ${name}`}>
-          Remove
-        </button>
+        <div className="flex gap-1">
+          <button
+            type="button"
+            className={toolButtonClass(showDifference)}
+            aria-pressed={showDifference}
+            disabled={against !== 'speed'}
+            title={against === 'speed' ? 'This run less the baseline, in dB' : 'Against speed only'}
+            onClick={() => setShowDifference((v) => !v)}
+          >
+            Difference
+          </button>
+          <button type="button" className={toolButtonClass()} onClick={onRemove} aria-label={`Stop comparing ${name}`}>
+            Remove
+          </button>
+        </div>
       }
     >
       <div className="relative h-72 overflow-hidden rounded-sm bg-ink-950 ring-1 ring-ink-800">
         <MapView
-          raster={raster}
-          lut={lut}
-          topDb={topDb}
-          rangeDb={rangeDb}
-          extents={extents}
+          raster={shown}
+          lut={diff ? divergingLut() : lut}
+          topDb={diff ? DIFFERENCE_RANGE_DB : topDb}
+          rangeDb={diff ? 2 * DIFFERENCE_RANGE_DB : rangeDb}
+          extents={shownExtents}
           swapped={swapped}
           against={against}
           lines={lines}
@@ -137,7 +166,7 @@ function RunMap({ name, topDb, rangeDb, onRemove }: { name: string; topDb: numbe
           onPin={() => undefined}
           marks={[]}
           onMark={() => undefined}
-          label={`Map of ${name}, on the baseline's zoom and guides`}
+          label={diff ? `${name} less the baseline, dB, against speed` : `Map of ${name}, on the baseline's zoom and guides`}
         />
         {against === 'speed' && speedMap.kind !== 'done' && (
           <p className="pointer-events-none absolute inset-x-0 top-1/2 text-center text-sm text-mist-300" role="status">
@@ -145,6 +174,13 @@ function RunMap({ name, topDb, rangeDb, onRemove }: { name: string; topDb: numbe
           </p>
         )}
       </div>
+      {diff && (
+        <p className="mt-2 font-mono text-[11px] text-mist-300" data-testid="difference-map-note">
+          {name} − baseline: colours from −{DIFFERENCE_RANGE_DB} dB (blue, quieter) through 0 to +{DIFFERENCE_RANGE_DB} dB (amber, louder); grid {groupDigits(diff.stepRpm)} rpm over{' '}
+          {groupDigits(diff.fromRpm)}–{groupDigits(diff.toRpm)} rpm, the speeds both runs cover.
+        </p>
+      )}
+      {difference && 'problem' in difference && <p className="mt-2 text-xs text-danger">{difference.problem}</p>}
       <p className="mt-2 font-mono text-[11px] text-mist-500" data-testid="compared-run-status">
         {percent !== null ? `computing the map, ${percent} %` : report ? carrierSummary(report) : status.kind === 'done' ? 'finding the carrier…' : ''}
       </p>

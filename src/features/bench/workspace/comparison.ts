@@ -5,6 +5,11 @@
  */
 import { deltaDb, levelsDb, medianOnSpeedGrid, onSpeedGrid, speedGrid, speedRange } from '../../../../workers/dsp/compare';
 import type { GuideTrack } from '../../../../workers/dsp/guide-tracks';
+import { familyLabel } from '../../../../workers/dsp/guide-formula';
+import type { InverterReport } from '../../../../workers/dsp/inverter-analysis';
+import { db1 } from '../../../lib/tone-text';
+import { carrierSummary, groupDigits } from '../analysis/findings-text';
+import type { LevelReference } from '../map/level-reference';
 
 export interface TrackComparison {
   grid: Float64Array;
@@ -29,5 +34,26 @@ export function compareCarriers(runs: { frameRpm: Float64Array | null; carrierHz
   return {
     grid,
     hz: runs.map((r) => (r.frameRpm && r.carrierHz ? medianOnSpeedGrid(r.frameRpm, r.carrierHz, grid, stepRpm) : new Float64Array(grid.length).fill(NaN))),
+  };
+}
+
+export interface FindingsRow {
+  carrier: string;
+  shifts: string;
+  spread: string;
+  poles: string;
+  families: string;
+}
+
+/** A run's findings in words, as the comparison's table and a saved comparison show them. */
+export function findingsRow(r: InverterReport | null, reference: LevelReference): FindingsRow | null {
+  if (!r) return null;
+  const top = r.strongestFamilies.filter((f) => f.peakRms > 0 && Number.isFinite(f.peakRpm)).slice(0, 3);
+  return {
+    carrier: carrierSummary(r),
+    shifts: r.carrierShifts.length ? r.carrierShifts.map((s) => `${groupDigits(s.fromHz)} → ${groupDigits(s.toHz)} Hz at ${groupDigits(s.rpm)} rpm`).join('; ') : 'none',
+    spread: r.carrierSpreadHz === null ? 'steady' : `${groupDigits(r.carrierSpreadHz)} Hz`,
+    poles: r.polePairs.value === null ? '—' : `${r.polePairs.value}${r.polePairs.ambiguous ? ' (ambiguous)' : ''}`,
+    families: top.map((f) => `${familyLabel(f.m, f.n)} ${db1(20 * Math.log10(f.peakRms / reference.refRms))} dB`).join(', '),
   };
 }

@@ -1,31 +1,6 @@
-import { familyLabel } from '../../../../workers/dsp/guide-formula';
-import type { InverterReport } from '../../../../workers/dsp/inverter-analysis';
-import { db1 } from '../../../lib/tone-text';
-import { carrierSummary, groupDigits } from '../analysis/findings-text';
-import type { LevelReference } from '../map/level-reference';
-import type { PublishedRun } from './workspace';
+import type { FindingsRow } from './comparison';
 
-interface Row {
-  carrier: string;
-  shifts: string;
-  spread: string;
-  poles: string;
-  families: string;
-}
-
-function rowOf(r: InverterReport | null, reference: LevelReference): Row | null {
-  if (!r) return null;
-  const top = r.strongestFamilies.filter((f) => f.peakRms > 0 && Number.isFinite(f.peakRpm)).slice(0, 3);
-  return {
-    carrier: carrierSummary(r),
-    shifts: r.carrierShifts.length ? r.carrierShifts.map((s) => `${groupDigits(s.fromHz)} → ${groupDigits(s.toHz)} Hz at ${groupDigits(s.rpm)} rpm`).join('; ') : 'none',
-    spread: r.carrierSpreadHz === null ? 'steady' : `${groupDigits(r.carrierSpreadHz)} Hz`,
-    poles: r.polePairs.value === null ? '—' : `${r.polePairs.value}${r.polePairs.ambiguous ? ' (ambiguous)' : ''}`,
-    families: top.map((f) => `${familyLabel(f.m, f.n)} ${db1(20 * Math.log10(f.peakRms / reference.refRms))} dB`).join(', '),
-  };
-}
-
-const columns: { key: keyof Row; title: string }[] = [
+const columns: { key: keyof FindingsRow; title: string }[] = [
   { key: 'carrier', title: 'Carrier' },
   { key: 'shifts', title: 'Shifts' },
   { key: 'spread', title: 'Spread' },
@@ -34,8 +9,7 @@ const columns: { key: keyof Row; title: string }[] = [
 ];
 
 /** Each run's findings in a row; what differs from the baseline's is in the accent. */
-export function FindingsTable({ runs, reference }: { runs: PublishedRun[]; reference: LevelReference }) {
-  const rows = runs.map((r) => rowOf(r.state.report, reference));
+export function FindingsTable({ runs, rows, referenceLabel }: { runs: { id: string; name: string; baseline: boolean }[]; rows: (FindingsRow | null)[]; referenceLabel: string }) {
   const base = rows[0];
   return (
     <section aria-label="Findings compared" className="overflow-x-auto">
@@ -70,7 +44,7 @@ export function FindingsTable({ runs, reference }: { runs: PublishedRun[]; refer
           ))}
         </tbody>
       </table>
-      <p className="mt-1 text-[11px] text-mist-500">Levels in dB re {reference.label}; what differs from the baseline is highlighted.</p>
+      <p className="mt-1 text-[11px] text-mist-500">Levels in dB re {referenceLabel}; what differs from the baseline is highlighted.</p>
     </section>
   );
 }

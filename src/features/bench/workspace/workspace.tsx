@@ -10,8 +10,15 @@ export interface PublishedRun {
   state: BenchState;
 }
 
+/** What the engineer chose in the comparison: the track compared, and the project whose targets apply. */
+export interface ComparisonChoice {
+  trackId: string | null;
+  projectId: number | null;
+}
+
 interface Workspace {
   runs: Store<Record<string, PublishedRun>>;
+  choice: Store<ComparisonChoice>;
   publish(run: PublishedRun): void;
   withdraw(id: string): void;
 }
@@ -27,6 +34,7 @@ export function BenchWorkspace({ children }: { children: ReactNode }) {
     const runs = createStore<Record<string, PublishedRun>>({});
     return {
       runs,
+      choice: createStore<ComparisonChoice>({ trackId: null, projectId: null }),
       publish: (run) => runs.set((prev) => (prev[run.id]?.state === run.state && prev[run.id]?.name === run.name ? prev : { ...prev, [run.id]: run })),
       withdraw: (id) =>
         runs.set((prev) => {
@@ -51,4 +59,11 @@ export function useWorkspaceRuns(): PublishedRun[] {
   const { runs } = useWorkspace();
   const all = useSyncExternalStore(runs.subscribe, runs.get);
   return Object.values(all).sort((a, b) => Number(b.baseline) - Number(a.baseline));
+}
+
+/** The comparison's choices, shared by its panel and the save (which keeps what the panel shows). */
+export function useComparisonChoice(): [ComparisonChoice, (patch: Partial<ComparisonChoice>) => void] {
+  const { choice } = useWorkspace();
+  const value = useSyncExternalStore(choice.subscribe, choice.get);
+  return [value, (patch) => choice.set((prev) => ({ ...prev, ...patch }))];
 }

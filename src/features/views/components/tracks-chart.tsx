@@ -10,7 +10,7 @@ const H = 150;
 type Track = NonNullable<SnapshotHeader['tracks']>[number];
 
 /** The tracks saved with the snapshot: level against the map's x axis, gaps where a track has none. */
-export function TracksChart({ tracks, xAxis }: { tracks: Track[]; xAxis: AxisSpec }) {
+export function TracksChart({ tracks, xAxis, testId = 'view-tracks', label = 'Tracks', dashedLast = false }: { tracks: Track[]; xAxis: AxisSpec; testId?: string; label?: string; /** the last series is a limit (a target): dashed */ dashedLast?: boolean }) {
   const levels = tracks.flatMap((t) => t.points.map((p) => p[1]).filter((v): v is number => v !== null));
   if (levels.length === 0) return <p className="text-sm text-mist-500">The tracks hold no levels.</p>;
   let lo = Math.min(...levels);
@@ -40,7 +40,7 @@ export function TracksChart({ tracks, xAxis }: { tracks: Track[]; xAxis: AxisSpe
   };
   const unit = tracks[0]?.unit ?? 'dB';
   return (
-    <div data-testid="view-tracks">
+    <div data-testid={testId}>
       <div className="grid grid-cols-[3rem_minmax(0,1fr)]">
         <div className="relative">
           {ticks(lo, hi, 4).map((v) => (
@@ -53,7 +53,7 @@ export function TracksChart({ tracks, xAxis }: { tracks: Track[]; xAxis: AxisSpe
             </span>
           ))}
         </div>
-        <svg viewBox={`0 0 ${W} ${H}`} preserveAspectRatio="none" className="h-36 w-full rounded-sm bg-ink-950 ring-1 ring-ink-700" role="img" aria-label="Tracks">
+        <svg viewBox={`0 0 ${W} ${H}`} preserveAspectRatio="none" className="h-36 w-full rounded-sm bg-ink-950 ring-1 ring-ink-700" role="img" aria-label={label}>
           <clipPath id="tracks-clip">
             <rect x={0} y={0} width={W} height={H} />
           </clipPath>
@@ -61,9 +61,12 @@ export function TracksChart({ tracks, xAxis }: { tracks: Track[]; xAxis: AxisSpe
             <line key={v} x1={0} x2={W} y1={yOf(v)} y2={yOf(v)} stroke={palette.ink[700]} vectorEffect="non-scaling-stroke" />
           ))}
           <g clipPath="url(#tracks-clip)">
-            {tracks.map((t, i) => (
-              <path key={t.name} d={path(t)} fill="none" stroke={COLOURS[i % COLOURS.length]} strokeWidth={1.5} vectorEffect="non-scaling-stroke" />
-            ))}
+            {tracks.map((t, i) => {
+              const limit = dashedLast && i === tracks.length - 1;
+              return (
+                <path key={t.name} d={path(t)} fill="none" stroke={limit ? palette.danger : COLOURS[i % COLOURS.length]} strokeWidth={1.5} strokeDasharray={limit ? '6 4' : undefined} vectorEffect="non-scaling-stroke" />
+              );
+            })}
           </g>
         </svg>
         <div />
@@ -81,7 +84,7 @@ export function TracksChart({ tracks, xAxis }: { tracks: Track[]; xAxis: AxisSpe
         </span>
         {tracks.map((t, i) => (
           <span key={t.name} className="flex items-center gap-1.5">
-            <span className="inline-block h-0.5 w-4" style={{ background: COLOURS[i % COLOURS.length] }} />
+            <span className="inline-block h-0.5 w-4" style={{ background: dashedLast && i === tracks.length - 1 ? palette.danger : COLOURS[i % COLOURS.length] }} />
             {t.name}
           </span>
         ))}

@@ -13,6 +13,7 @@ import { GuidesList } from './guides-list';
 import { MarkCard } from './mark-card';
 import { SnapshotFigure, type PendingPlace } from './snapshot-figure';
 import { TracksChart } from './tracks-chart';
+import { ComparisonSection } from './comparison-section';
 
 export interface SnapshotSource {
   hasSnapshot: boolean;
@@ -130,6 +131,7 @@ export function ViewLayout({
               <TracksChart tracks={header.tracks} xAxis={header.axes.x as AxisSpec} />
             </Section>
           )}
+          {state.comparison && <ComparisonSection comparison={state.comparison} />}
           <Section title="Discussion">{discussion}</Section>
         </div>
         <div className="flex min-w-0 flex-col gap-6">

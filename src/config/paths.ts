@@ -19,12 +19,21 @@ export const paths = {
  * other comes from this browser's library by its fingerprint (`open`); `view` starts from a saved view,
  * `project` preselects the project to save into.
  */
-export function benchFor(r: { fingerprint: string; demoFile?: string | null; viewId?: number; projectId?: number }): string {
+export function benchFor(r: {
+  fingerprint: string;
+  demoFile?: string | null;
+  viewId?: number;
+  projectId?: number;
+  /** Runs to compare with it: library fingerprints, and demo files fetched from the server */
+  compare?: { fingerprints: string[]; demoFiles: string[] };
+}): string {
   const q = new URLSearchParams();
   if (r.demoFile) q.set('demo', r.demoFile);
   else q.set('open', r.fingerprint);
   if (r.viewId !== undefined) q.set('view', String(r.viewId));
   if (r.projectId !== undefined) q.set('project', String(r.projectId));
+  if (r.compare?.fingerprints.length) q.set('with', r.compare.fingerprints.join(','));
+  if (r.compare?.demoFiles.length) q.set('withDemo', r.compare.demoFiles.join(','));
   return `${paths.bench}?${q.toString()}`;
 }
 

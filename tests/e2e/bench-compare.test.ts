@@ -102,6 +102,13 @@ describe('comparing runs on the Bench (browser)', () => {
     const findings = await viewer.getByTestId('view-comparison-findings').textContent();
     expect(findings?.replace(/\s/g, '')).toMatch(/Carrier8000Hz,then12000Hz.*Carrier10000Hz,then12000Hz/);
     await screenshot(viewer, 'view-comparison');
+
+    // and reopens it live on the Bench, with the changed run beside the baseline again
+    expect(await viewer.getByRole('link', { name: 'Open live on the Bench' }).getAttribute('href')).toContain(`withDemo=${changed.file}`);
+    await viewer.getByRole('link', { name: 'Open live on the Bench' }).click();
+    await expect.poll(() => viewer.getByTestId('compared-run').count(), { timeout: 60_000 }).toBe(1);
+    await expect.poll(() => viewer.getByTestId('compare-panel').isVisible(), { timeout: 60_000 }).toBe(true);
     await viewer.close();
-  });
+    // several maps, findings and tracks in two sessions, a save and a reopening: more than the default minute
+  }, 240_000);
 });

@@ -6,32 +6,14 @@
  * frequencies cross on a run-up (levels invented for the test; a pure tone of amplitude A reads A/√2 RMS).
  */
 import { describe, expect, it } from 'vitest';
-import { createRealFft } from '../../../workers/dsp/fft';
 import { guideTracks, type TrackedLine } from '../../../workers/dsp/guide-tracks';
-import { computeFrames, frameTimeS, stftLayout } from '../../../workers/dsp/stft';
-import { makeWindow } from '../../../workers/dsp/window';
-import { tone } from '../../support/tones';
+import { A_FAMILY as aFam, crossingRunUp, FC, P } from '../../support/crossing-run-up';
 
-const FS = 25600;
-const T = 6;
-const N = FS * T;
-const rpm = (t: number) => 1000 + 500 * t; // 1000 → 4000 rpm
-const FC = 3000;
-const P = 4;
 const db = (x: number) => 20 * Math.log10(x);
 
 describe('the Bench tracks where guides cross', async () => {
   // order 48 meets fc − fe (3000 − 4·rpm/60 Hz) at about 3460 rpm
-  const a48 = 0.3;
-  const aFam = 0.12;
-  const order = tone(N, FS, (t) => (48 * rpm(t)) / 60, () => a48, 0.2);
-  const family = tone(N, FS, (t) => FC - (P * rpm(t)) / 60, () => aFam, 1.0);
-  const x = Float32Array.from(order, (v, i) => v + family[i]);
-  const layout = stftLayout(N, FS, { window: 'hann', blockSize: 4096, overlap: 0.75 });
-  const win = makeWindow('hann', 4096);
-  const power = new Float32Array(layout.frames * layout.bins);
-  computeFrames(x, 0, layout, win, await createRealFft(4096), 0, layout.frames, power);
-  const frameRpm = Float64Array.from({ length: layout.frames }, (_, f) => rpm(frameTimeS(layout, f)));
+  const { x, layout, win, power, frameRpm } = await crossingRunUp();
   const carrierHz = new Float64Array(layout.frames).fill(FC);
   const lines: TrackedLine[] = [
     { id: 'k48', guide: { kind: 'order', order: 48 }, ctx: { rpm: frameRpm } },

@@ -1,7 +1,4 @@
-import { useRef, useState } from 'react';
-import { errorMessage } from '../../../lib/error-message';
-import { baseName, downloadBlob } from '../analysis/export';
-import { canvasToPng, composeMap } from '../map/compose-png';
+import { useRef } from 'react';
 import { fullView } from '../map/viewport';
 import { useBench, useBenchActions, useBenchLive } from '../session/bench-session';
 import { useStore } from '../session/store';
@@ -9,13 +6,13 @@ import { BenchPanel, toolButtonClass } from './bench-panel';
 import { BottomAxis, LeftAxis } from '../../../components/plot/map-axes';
 import { mapAxes } from '../map/map-axes';
 import { MapScale } from './map-scale';
-import { MapSettingsBar } from './map-settings';
 import { MapNotices, MapStatusLine } from './map-status';
 import { MapToolbar } from './map-toolbar';
 import { MapView } from './map-view';
 import { Readout } from './map-readout';
 import { MarkTools } from './mark-tools';
-import { windowLabel } from './map-settings';
+import { useMapPngExport } from './use-map-png-export';
+import { MapSettingsBar, windowLabel } from './map-settings';
 
 // The map and the colour bar share this height so their edges line up.
 const MAP_HEIGHT = 'h-[clamp(22rem,58vh,50rem)]';
@@ -49,36 +46,16 @@ export function MapPanel() {
   const againstNote = useBench(againstNoteOf);
   const axes = mapAxes(view, against, swapped);
   const boxRef = useRef<HTMLDivElement>(null);
-  const [exportSize, setExportSize] = useState<string | null>(null);
-  const [exportError, setExportError] = useState<string | null>(null);
   const dB = weighting === 'Z' ? 'dB' : `dB(${weighting})`;
 
-  const exportPng = async () => {
-    setExportError(null);
-    const map = boxRef.current?.querySelector<HTMLCanvasElement>('[data-testid="map-canvas"]');
-    const guides = boxRef.current?.querySelector<HTMLCanvasElement>('[data-testid="map-guides"]');
-    if (!map || !guides || !axes.left || !axes.bottom || !layout) return;
-    const canvas = composeMap({
-      map,
-      guides,
-      left: axes.left,
-      bottom: axes.bottom,
-      lut,
-      topDb,
-      rangeDb,
-      scaleLabel: `${dB} re ${reference.label}`,
-      title: recordingName,
-      subtitle: `${windowLabel[windowName]} · ${layout.blockSize} · Δf ${fmt(layout.binHz, 2)} Hz · against ${against}${swapped ? ' · axes swapped' : ''}`,
-      dpr: map.width / Math.max(1, map.clientWidth),
-    });
-    try {
-      const blob = await canvasToPng(canvas);
-      setExportSize(`${canvas.width}x${canvas.height}`);
-      downloadBlob(blob, `${baseName(recordingName)}-map.png`);
-    } catch (e) {
-      setExportError(errorMessage(e));
-    }
-  };
+  const { exportPng, exportSize, exportError } = useMapPngExport(boxRef, axes, {
+    lut,
+    topDb,
+    rangeDb,
+    scaleLabel: `${dB} re ${reference.label}`,
+    title: recordingName,
+    subtitle: layout ? `${windowLabel[windowName]} · ${layout.blockSize} · Δf ${fmt(layout.binHz, 2)} Hz · against ${against}${swapped ? ' · axes swapped' : ''}` : '',
+  });
 
   return (
     <BenchPanel

@@ -6,7 +6,7 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import * as Comlink from 'comlink';
 import { speedMapTask } from '../../../../workers/analysis.worker';
-import { guideTracks, type GuideTrack, type GuideTracksRequest, type TrackedLine } from '../../../../workers/dsp/guide-tracks';
+import { guideTracks, type GuideTrack, type GuideTracksRequest } from '../../../../workers/dsp/guide-tracks';
 import { analyseInverter, type InverterAnalysisInput, type InverterReport } from '../../../../workers/dsp/inverter-analysis';
 import type { FamilyPattern } from '../../../../workers/dsp/pole-pairs';
 import type { SpeedMap } from '../../../../workers/dsp/speed-map';
@@ -138,19 +138,10 @@ export function useFindings(input: FindingsInput): TaskState<InverterReport> {
 
 const TRACKS_PAUSE_MS = 150;
 
-export interface GuideTracksInput {
+/** The tracks' request as the session has it: the map still filling, the samples not yet calibrated. */
+export interface GuideTracksInput extends Omit<GuideTracksRequest, 'power' | 'layout' | 'samples'> {
   power: MapPower | null;
   ready: boolean;
-  /** The lines to track, and every line shown (for the crossing flags) */
-  lines: TrackedLine[];
-  shown: TrackedLine[];
-  window: WindowName;
-  enbwBins: number;
-  against: 'time' | 'speed';
-  frameRpm: Float64Array | null;
-  rpmStep: number;
-  weighting: Weighting;
-  refRms: number;
   /** The map channel's samples as read and their calibration: crossing points are filtered from them */
   channel: { samples: Float32Array | null; scale: number };
   owner: string;

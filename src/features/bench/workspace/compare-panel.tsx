@@ -12,6 +12,13 @@ import { frameAtRpm } from '../analysis/spectra';
 import { lineHz } from '../map/guides';
 import { FindingsTable } from './findings-table';
 
+/** The index of the grid point nearest a value (−1 on an empty grid). */
+function nearestIndex(xs: number[], v: number): number {
+  let best = -1;
+  for (let k = 0; k < xs.length; k++) if (best < 0 || Math.abs(xs[k] - v) < Math.abs(xs[best] - v)) best = k;
+  return best;
+}
+
 function medianOf(v: Float64Array): number {
   const s = Array.from(v).filter(Number.isFinite).sort((a, b) => a - b);
   return s.length ? s[s.length >> 1] : Number.NaN;
@@ -58,10 +65,28 @@ export function ComparePanel() {
     // eslint-disable-next-line react-hooks/exhaustive-deps -- as above
     [names.join('\n')],
   );
+  // each run's shifts are marked on its carrier line: the grid point nearest the shift's speed
+  const shiftRpms = runs.map((r) => (r.state.report?.carrierShifts ?? []).map((x) => x.rpm).filter(Number.isFinite));
+  const shiftKey = JSON.stringify(shiftRpms);
   const carrierOptions = useMemo(
-    () => ({ scales: { x: { time: false } }, axes: [plotAxis('Speed (rpm)', { values: rpmTicks }), plotAxis('Carrier (Hz)', { size: 56 })], series: runSeries(names) }),
+    () => ({
+      scales: { x: { time: false } },
+      axes: [plotAxis('Speed (rpm)', { values: rpmTicks }), plotAxis('Carrier (Hz)', { size: 56 })],
+      series: runSeries(names).map((series, i) =>
+        i === 0
+          ? series
+          : {
+              ...series,
+              points: {
+                show: true,
+                size: 8,
+                filter: (u: uPlot) => (JSON.parse(shiftKey)[i - 1] as number[]).map((rpm) => nearestIndex(u.data[0] as number[], rpm)).filter((k) => k >= 0),
+              },
+            },
+      ),
+    }),
     // eslint-disable-next-line react-hooks/exhaustive-deps -- as above
-    [names.join('\n')],
+    [names.join('\n'), shiftKey],
   );
 
   if (runs.length < 2) return null;

@@ -52,21 +52,26 @@ export function useComparisonParams(params: URLSearchParams, setParams: SetURLSe
     [setParams],
   );
 
-  // `?withDemo=`: once the baseline is open, the demo file joins the comparison
+  // `?withDemo=a.wav,b.wav`: once the baseline is open, the demo files join the comparison
   const withDemo = params.get('withDemo');
   const asked = useRef<string | null>(null);
   useEffect(() => {
     if (!withDemo || !openFingerprint || !demos || asked.current === withDemo) return;
     asked.current = withDemo;
-    const recording = demos.find((d) => d.file === withDemo);
-    void mutateAsync({ file: withDemo, setup: recording ? demoSetup(recording) : undefined }).then(
-      (fingerprint) => {
+    const files = withDemo.split(',').filter((f) => demos.some((d) => d.file === f)).slice(0, MAX_COMPARED);
+    void Promise.all(
+      files.map((file) => {
+        const recording = demos.find((d) => d.file === file);
+        return mutateAsync({ file, setup: recording ? demoSetup(recording) : undefined });
+      }),
+    ).then(
+      (fingerprints) => {
         setParams(
           (prev) => {
             const next = new URLSearchParams(prev);
             next.delete('withDemo');
             const list = (prev.get('with') ?? '').split(',').filter(Boolean);
-            next.set('with', [...new Set([...list, fingerprint])].join(','));
+            next.set('with', [...new Set([...list, ...fingerprints])].join(','));
             return next;
           },
           { replace: true },

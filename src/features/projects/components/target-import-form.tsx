@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import { TargetWeightingField } from './target-weighting';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
@@ -35,13 +36,7 @@ export function TargetImportForm({ projectId, onDone }: { projectId: number; onD
       </p>
       <div className="flex flex-wrap items-center gap-3 text-xs">
         <input type="file" accept=".csv,text/csv" aria-label="Targets CSV file" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
-        <label className="flex items-center gap-1.5">
-          Weighting
-          <select className="rounded border border-ink-700 bg-ink-950 px-1.5 py-0.5" value={weighting} onChange={(e) => setWeighting(e.target.value as 'A' | 'Z')}>
-            <option value="Z">Z (none)</option>
-            <option value="A">A</option>
-          </select>
-        </label>
+        <TargetWeightingField value={weighting} onChange={setWeighting} />
         <label className="flex items-center gap-1.5">
           <input type="checkbox" checked={replace} onChange={(e) => setReplace(e.target.checked)} />
           replace this weighting’s targets

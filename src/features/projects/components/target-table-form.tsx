@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import { TargetWeightingField } from './target-weighting';
 import { targetTrack } from '../../../../server/schemas/targets';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
@@ -53,13 +54,7 @@ export function TargetTableForm({ projectId, onDone }: { projectId: number; onDo
           Track
           <input className={`${cell} w-32`} value={track} onChange={(e) => setTrack(e.target.value)} placeholder="family:1:2" aria-label="Target track" />
         </label>
-        <label className="flex items-center gap-1.5">
-          Weighting
-          <select className="rounded border border-ink-700 bg-ink-950 px-1.5 py-0.5" value={weighting} onChange={(e) => setWeighting(e.target.value as 'A' | 'Z')}>
-            <option value="Z">Z (none)</option>
-            <option value="A">A</option>
-          </select>
-        </label>
+        <TargetWeightingField value={weighting} onChange={setWeighting} />
       </div>
       <table className="w-fit" aria-label="Target points">
         <thead>

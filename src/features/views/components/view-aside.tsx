@@ -24,7 +24,10 @@ export function ViewAside({ view, page }: { view: ViewDetail; page: ReturnType<t
           <p className="mb-2 text-sm text-mist-300">
             {page.inLibrary.data ? "This browser's library holds the recording of this view." : 'The recording of this view is one of the demo recordings.'}
           </p>
-          <Link to={benchFor({ fingerprint: page.fingerprint, demoFile: page.inLibrary.data ? null : page.demoFile, viewId: view.id })} className={linkClass}>
+          <Link
+            to={benchFor({ fingerprint: page.fingerprint, demoFile: page.inLibrary.data ? null : page.demoFile, viewId: view.id, compare: page.comparedRuns })}
+            className={linkClass}
+          >
             Open live on the Bench
           </Link>
         </Section>

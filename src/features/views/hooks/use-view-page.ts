@@ -51,6 +51,10 @@ export function useViewPage(view: ViewDetail) {
     document.getElementById(`mark-card-${selectedMarkId}`)?.scrollIntoView({ block: 'start' });
   }, [marks.data, selectedMarkId]);
 
+  // a saved comparison reopens with its runs: demo files fetched again, others from this browser's library
+  const demoNames = new Set(demos.data?.map((d) => d.file) ?? []);
+  const others = view.state.comparison?.runs.slice(1) ?? [];
+  const comparedRuns = { fingerprints: others.filter((r) => !demoNames.has(r.name)).map((r) => r.fingerprint), demoFiles: others.filter((r) => demoNames.has(r.name)).map((r) => r.name) };
   const mayEdit = (m: Mark) => open && (isLead || (isEngineer && m.author?.id === me?.id));
-  return { me, project, isLead, isEngineer, open, snapshot, marks, members, recording, fingerprint, inLibrary, demoFile, selectedMarkId, selectMark, mayEdit };
+  return { me, project, isLead, isEngineer, open, snapshot, marks, members, recording, fingerprint, inLibrary, demoFile, comparedRuns, selectedMarkId, selectMark, mayEdit };
 }

@@ -1,7 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import { createViewBody, saveViewChangesBody, type ViewDetail } from '../../../../server/schemas/views';
-import { snapshotHeader, type SnapshotHeader } from '../../../../workers/io/snapshot-format';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { SelectField } from '../../../components/ui/select-field';
@@ -65,21 +64,17 @@ export function SaveViewForm({
   const projectId = chosen ?? preferred?.id ?? eligible[0].id;
   const project = eligible.find((p) => p.id === projectId)!;
 
-  /** What is on screen now, with its snapshot header checked; null (and the reason shown) if there is none. */
-  const take = (): { taken: ViewCapture; header: SnapshotHeader } | null => {
+  /** What is on screen now (its snapshot header checked by the capture); null, with the reason shown, if there is none. */
+  const take = (): { taken: ViewCapture; header: ViewCapture['header'] } | null => {
     setOutcome(null);
     const taken = capture();
     if (typeof taken === 'string') {
       setOutcome({ tone: 'error', message: taken });
       return null;
     }
-    const header = snapshotHeader.safeParse(taken.header);
-    if (!header.success) {
-      setOutcome({ tone: 'error', message: `The snapshot cannot be made: ${issuesText(header.error.issues)}` });
-      return null;
-    }
-    return { taken, header: header.data };
+    return { taken, header: taken.header };
   };
+
 
   const busy = saveNew.isPending || saveInto.isPending;
   /** Runs a save and reports; `refused` words the server's refusals the engineer can act on. */

@@ -1,5 +1,6 @@
 import { guideTracks } from '../../../../workers/dsp/guide-tracks';
-import type { SnapshotHeader } from '../../../../workers/io/snapshot-format';
+import { snapshotHeader, type SnapshotHeader } from '../../../../workers/io/snapshot-format';
+import { issuesText } from '../api/save-view';
 import { uniqueLabels } from '../map/guides';
 import { dbUnit } from '../map/level-reference';
 import type { Viewport } from '../map/viewport';
@@ -70,5 +71,8 @@ export function captureView(s: BenchState, view: Viewport | null): ViewCapture |
     tracks: tracksOf(s),
   };
   const picture = quantiseVisible(raster, view, s.swapped, s.topDb, s.rangeDb);
-  return { state: benchViewState(inputs), header: snapshotHeaderOf(inputs, picture), map: picture.map, swapped: s.swapped };
+  // the same check the server makes on the file, before anything is sent
+  const header = snapshotHeader.safeParse(snapshotHeaderOf(inputs, picture));
+  if (!header.success) return `The snapshot cannot be made: ${issuesText(header.error.issues)}`;
+  return { state: benchViewState(inputs), header: header.data, map: picture.map, swapped: s.swapped };
 }

@@ -8,6 +8,8 @@ import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { demoRecordings } from '../../seeds/demo-recordings';
 import { demoProject } from '../../seeds/demo-scenario';
+import { synthesiseDrive, synthesiseTacho } from '../../seeds/synthetic-drive';
+import { writeWav } from '../../workers/io/wav-writer';
 import { launchBrowser, screenshot, signIn } from './browser';
 
 describe('comparing runs on the Bench (browser)', () => {
@@ -111,4 +113,26 @@ describe('comparing runs on the Bench (browser)', () => {
     await viewer.close();
     // several maps, findings and tracks in two sessions, a save and a reopening: more than the default minute
   }, 240_000);
+
+  it('puts a file of one’s own beside the open recording, and keeps it in the library', async () => {
+    const page = await browser.newPage({ viewport: { width: 1600, height: 1100 } });
+    await signIn(page, baseUrl, 'engineer@fanlight.test');
+    await page.waitForURL(`${baseUrl}/projects`);
+    await page.goto(`${baseUrl}/bench`);
+    await page.getByRole('button', { name: `Open the demo recording ${demoRecordings[0].title}` }).click();
+    await expect.poll(() => page.getByTestId('recording-name').textContent(), { timeout: 30_000 }).toBe(demoRecordings[0].file);
+    // a short run-up of the same drive at 25.6 kHz (invented), accelerometer and tacho
+    const fs = 25600;
+    const rpm = (t: number) => 1000 + 1500 * t;
+    const x = synthesiseDrive({ fsHz: fs, durationS: 4, rpm, polePairs: 4, carrierHz: () => 8000, families: [{ m: 1, n: 1, amplitude: 0.02 }], noiseRms: 0.002, seed: 3 });
+    const bytes = writeWav([x, synthesiseTacho(fs, 4, rpm, 60)], { sampleRateHz: fs, bits: 24 });
+    await page.getByLabel('A recording to compare with the open one').setInputFiles({ name: 'bench-test-run.wav', mimeType: 'audio/wav', buffer: Buffer.from(bytes) });
+    const run = page.getByTestId('compared-run');
+    await expect.poll(() => run.count(), { timeout: 60_000 }).toBe(1);
+    expect(await run.first().textContent()).toContain('bench-test-run.wav');
+    // the open recording stays open; the file is in the library, marked as compared
+    expect(await page.getByTestId('recording-name').textContent()).toBe(demoRecordings[0].file);
+    expect(await page.getByRole('button', { name: 'Compare bench-test-run.wav with the open recording' }).getAttribute('aria-pressed')).toBe('true');
+    await page.close();
+  }, 120_000);
 });

@@ -16,6 +16,7 @@ import { errorMessage } from '../../lib/error-message';
 import type { LibraryEntry } from '../../features/library/api/library-store';
 import { warmPool } from '../../lib/workers/analysis-pool';
 import { useComparisonParams } from '../../features/bench/workspace/use-comparison-params';
+import { CompareFilePicker } from '../../features/bench/workspace/compare-file-picker';
 
 /**
  * `?open=<fingerprint>` opens a library entry; `?view=<id>` starts it from a saved view of that recording
@@ -101,6 +102,7 @@ export function BenchPage() {
             onCancel={reader.cancel}
           />
           {prompt && !reading && <SampleRateForm prompt={prompt} onSubmit={reader.readWithRate} onCancel={reader.dismissPrompt} />}
+          {open && <CompareFilePicker busy={comparison.adding} onFile={comparison.compareFile} />}
           {notice && (
             <Notice tone={notice.tone}>
               {notice.fileName && <span className="break-all font-medium">{notice.fileName}: </span>}
@@ -120,7 +122,7 @@ export function BenchPage() {
         onComparePair={comparison.comparePair}
         compared={comparison.compared}
       />
-      {comparison.error && <Notice tone="error">The demo recording could not be added for comparison: {comparison.error.message}</Notice>}
+      {comparison.error && <Notice tone="error">The recording could not be added for comparison: {comparison.error.message}</Notice>}
     </>
   );
 

@@ -14,6 +14,21 @@ async function addDemoToLibrary(file: string, setup: ChannelSetup[] | undefined)
   return entry.fingerprint;
 }
 
+/** Reads a file of the engineer's into the library for a comparison (without opening it); its fingerprint. */
+async function addFileToLibrary(file: File): Promise<string> {
+  const decoded = await decodeInWorker(file, file.name).promise;
+  const entry = await addToLibrary(entryFrom(decoded, file.name, undefined), file);
+  return entry.fingerprint;
+}
+
+export function useAddFileRun() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (file: File) => addFileToLibrary(file),
+    onSettled: () => qc.invalidateQueries({ queryKey: libraryKeys.all }),
+  });
+}
+
 export function useAddDemoRun() {
   const qc = useQueryClient();
   return useMutation({

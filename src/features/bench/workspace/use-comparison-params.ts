@@ -1,7 +1,7 @@
 import { useCallback, useEffect, useRef } from 'react';
 import type { SetURLSearchParams } from 'react-router-dom';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
-import { useAddDemoRun } from '../api/add-demo-run';
+import { useAddDemoRun, useAddFileRun } from '../api/add-demo-run';
 import { demoSetup, type DemoRecording } from '../api/demo-recordings';
 
 /** At most this many runs beside the open one (six in all). */
@@ -37,6 +37,10 @@ export function useComparisonParams(params: URLSearchParams, setParams: SetURLSe
   const remove = useCallback((fingerprint: string) => setCompared((list) => list.filter((f) => f !== fingerprint)), [setCompared]);
 
   const addDemo = useAddDemoRun();
+  const addFile = useAddFileRun();
+  const { mutateAsync: readFile } = addFile;
+  /** A dropped or picked file joins the comparison (it is kept in the library too). */
+  const compareFile = useCallback((file: File) => void readFile(file).then(add, () => undefined), [readFile, add]);
   const { mutateAsync } = addDemo;
   const compareDemo = useCallback((file: string, setup: ChannelSetup[] | undefined) => void mutateAsync({ file, setup }).then(add, () => undefined), [mutateAsync, add]);
 
@@ -81,5 +85,14 @@ export function useComparisonParams(params: URLSearchParams, setParams: SetURLSe
     );
   }, [withDemo, openFingerprint, demos, mutateAsync, setParams]);
 
-  return { compared: key ? key.split(',') : [], add, remove, compareDemo, comparePair, adding: addDemo.isPending, error: addDemo.error };
+  return {
+    compared: key ? key.split(',') : [],
+    add,
+    remove,
+    compareDemo,
+    compareFile,
+    comparePair,
+    adding: addDemo.isPending || addFile.isPending,
+    error: addDemo.error ?? addFile.error,
+  };
 }

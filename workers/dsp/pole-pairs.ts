@@ -6,8 +6,9 @@
  * [1]; in the radial force, and so in the vibration and sound it drives, the current sidebands beat with
  * the fundamental field and m + n is even (fc ± fe, fc ± 3fe, 2fc, 2fc ± 2fe) [2]. Sidebands at m·fc ± d
  * are measured in shaft orders o = d/fr; a pole-pair count p and a pattern predict o = |n|·p for the
- * allowed n. Each candidate (p, pattern) scores the strength it explains, minus what it leaves
- * unexplained, minus its lowest predicted sidebands that are missing; the best wins, and a runner-up
+ * allowed n. Each candidate (p, pattern) scores the strength it explains (each offset weighed by the
+ * square of its strength), minus what it leaves unexplained, minus its lowest predicted sidebands that
+ * are missing; the best wins, and a runner-up
  * within 10 % makes the answer ambiguous. One sideband pair often fits two answers of the two patterns
  * (fc ± 4fr: p = 4 with n = ±1, m + n even, or p = 2 with n = ±2, m + n odd); when the caller knows which
  * pattern its channel carries (a vibration or sound channel the force's, a voltage or current channel
@@ -95,7 +96,10 @@ export function inferPolePairs(
   expected: FamilyPattern | null = null,
 ): PolePairEstimate {
   if (observed.length === 0) return { value: null, pattern: null, ambiguous: false, settledByChannel: false, observed };
-  const total = observed.reduce((s, o) => s + o.strength, 0);
+  // weighted by the square of their strength, so the many weak offsets that noise and the other
+  // families' lines leave at whole orders do not outvote the strong sidebands
+  const weight = (o: { strength: number }) => o.strength * o.strength;
+  const total = observed.reduce((s, o) => s + weight(o), 0);
   const meanStrength = total / observed.length;
   const candidates: { p: number; pattern: FamilyPattern; score: number }[] = [];
   for (let p = 1; p <= maxPolePairs; p++) {
@@ -104,7 +108,7 @@ export function inferPolePairs(
       for (const o of observed) {
         const n = o.orders / p;
         const rounded = Math.round(n);
-        if (rounded >= 1 && Math.abs(n - rounded) * p <= 0.35 && allowedN(o.m, rounded, pattern)) explained += o.strength;
+        if (rounded >= 1 && Math.abs(n - rounded) * p <= 0.35 && allowedN(o.m, rounded, pattern)) explained += weight(o);
       }
       // the lowest allowed sideband of each group should be there
       let missing = 0;

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useParams, useSearchParams } from 'react-router-dom';
+import { useParams } from 'react-router-dom';
 import type { SharedViewBundle, ThreadComment } from '../../../server/schemas/views';
 import { PublicFrame } from '../../components/layouts/public-frame';
 import { Notice } from '../../components/ui/notice';
@@ -12,6 +12,7 @@ import { ViewHeading } from '../../features/views/components/view-heading';
 import { ViewLayout } from '../../features/views/components/view-layout';
 import { ApiError } from '../../lib/api-client';
 import { formatDateTime } from '../../lib/format';
+import { useSelectedMark } from '../../features/views/hooks/use-selected-mark';
 
 /** A view opened through a share link, without an account: read-only, with named replies when the link allows. */
 export function SharedViewPage() {
@@ -49,16 +50,7 @@ function SharedView({ token, bundle }: { token: string; bundle: SharedViewBundle
   const snapshot = useSharedSnapshot(token, view.hasSnapshot);
   const reply = useSharedReply(token);
   const [name, setName] = useState('');
-  const [params, setParams] = useSearchParams();
-  const selectedMarkId = Number(params.get('mark')) || null;
-  const selectMark = (markId: number) =>
-    setParams(
-      (p) => {
-        p.set('mark', String(markId));
-        return p;
-      },
-      { replace: true, preventScrollReset: true },
-    );
+  const { selectedMarkId, selectMark } = useSelectedMark();
 
   const threadOf = (markId: number | null): ThreadComment[] => comments.filter((c) => c.markId === markId);
   // the reply box is open under the selected mark and under the view

@@ -4,6 +4,7 @@ import type { OpenRecording } from '../hooks/use-recording-reader';
 import { BaselineSession } from '../workspace/baseline-session';
 import { ComparedRuns } from '../workspace/compared-runs';
 import { ComparePanel } from '../workspace/compare-panel';
+import { ComparisonSummaryProvider } from '../workspace/use-comparison-summary';
 import { BenchWorkspace } from '../workspace/workspace';
 import type { ViewOnBench } from '../view-state/view-restore';
 import { BenchKeys } from './bench-keys';
@@ -42,6 +43,7 @@ export function Workbench({
   return (
     <BenchWorkspace>
       <BaselineSession recording={recording} fromView={fromView} preferredProjectId={preferredProjectId}>
+      <ComparisonSummaryProvider>
       {/* Narrow: one column. Wide: channels left, map centre, guides and findings right; in between,
           the guides and findings go under the channels. */}
       <div className="grid items-start gap-4 lg:grid-cols-[17.5rem_minmax(0,1fr)] lg:grid-rows-[auto_auto_1fr] xl:grid-cols-[17.5rem_minmax(0,1fr)_19.5rem]">
@@ -76,6 +78,7 @@ export function Workbench({
         </div>
       </div>
       <BenchKeys />
+      </ComparisonSummaryProvider>
       </BaselineSession>
     </BenchWorkspace>
   );

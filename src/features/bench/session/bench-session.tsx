@@ -157,5 +157,8 @@ export function useBench<T>(select: (s: BenchState) => T): T {
 
 export const useBenchActions = (): BenchActions => useSession().actions;
 
+/** The session's state as it is now, without subscribing (for a one-off read, such as a starting point). */
+export const useBenchSnapshot = (): (() => BenchState) => useSession().store.get;
+
 /** The pointer and the zoom: they change many times a second, so they are stores of their own. */
 export const useBenchLive = (): BenchStores => useSession().live;

@@ -1,4 +1,3 @@
-import { createContext, useContext } from 'react';
 import type { Viewport } from '../map/viewport';
 import { createStore, type Store } from './store';
 
@@ -24,11 +23,3 @@ export interface BenchStores {
 }
 
 export const createBenchStores = (): BenchStores => ({ viewport: createStore<Viewport | null>(null), pointer: createStore<BenchPointer | null>(null) });
-
-export const BenchStoresContext = createContext<BenchStores | null>(null);
-
-export function useBenchStores(): BenchStores {
-  const s = useContext(BenchStoresContext);
-  if (!s) throw new Error('useBenchStores outside the workbench');
-  return s;
-}

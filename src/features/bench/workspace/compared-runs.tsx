@@ -7,7 +7,7 @@ import { DIFFERENCE_RANGE_DB, differenceRaster } from './difference-raster';
 import { MapView } from '../components/map-view';
 import { BenchPanel, toolButtonClass } from '../components/bench-panel';
 import type { OpenRecording } from '../hooks/use-recording-reader';
-import { BenchSession, useBench, useBenchActions, useBenchLive, type BenchState, type FollowedView } from '../session/bench-session';
+import { BenchSession, useBench, useBenchActions, useBenchLive, useBenchSnapshot, type BenchState, type FollowedView } from '../session/bench-session';
 import type { BenchStores } from '../session/live-stores';
 import type { BenchRestore } from '../view-state/view-restore';
 import { useComparedRuns } from './use-compared-runs';
@@ -40,17 +40,19 @@ function startFrom(s: BenchState, live: BenchStores): BenchRestore {
 export function ComparedRuns({ fingerprints, onRemove }: { fingerprints: string[]; onRemove: (fingerprint: string) => void }) {
   const runs = useComparedRuns(fingerprints);
   const live = useBenchLive();
-  const baseline = useBench((s) => s);
+  const baselineNow = useBenchSnapshot();
+  const topDb = useBench((s) => s.topDb);
+  const rangeDb = useBench((s) => s.rangeDb);
   const guides = useBench((s) => s.guides);
   const against = useBench((s) => s.against);
   const swapped = useBench((s) => s.swapped);
   const follow = useMemo((): FollowedView => ({ guides, against, swapped }), [guides, against, swapped]);
-  const [start] = useState(() => startFrom(baseline, live));
+  const [start] = useState(() => startFrom(baselineNow(), live));
   return (
     <div className="grid gap-4 @5xl:grid-cols-2" data-testid="compared-runs">
       {runs.map((r) =>
         r.kind === 'ready' ? (
-          <ComparedRun key={r.fingerprint} recording={r.recording} start={start} follow={follow} live={live} topDb={baseline.topDb} rangeDb={baseline.rangeDb} onRemove={() => onRemove(r.fingerprint)} />
+          <ComparedRun key={r.fingerprint} recording={r.recording} start={start} follow={follow} live={live} topDb={topDb} rangeDb={rangeDb} onRemove={() => onRemove(r.fingerprint)} />
         ) : (
           <BenchPanel key={r.fingerprint} title="Compared run">
             {r.kind === 'reading' ? <p className="text-sm text-mist-500">Reading the recording…</p> : <Notice tone="error">{r.message}</Notice>}

@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { createContext, createElement, useContext, useMemo, type ReactNode } from 'react';
 import type { ComparisonState } from '../../../../server/schemas/views';
 import { dbUnit } from '../map/level-reference';
 import { useBench } from '../session/bench-session';
@@ -11,7 +11,7 @@ import { useComparisonChoice, useWorkspaceRuns } from './workspace';
  * Everything the comparison shows, worked out once for its panel and for a save: the chosen track of
  * every run on one grid, the target and its exceedances, the carriers against speed, the findings rows.
  */
-export function useComparisonSummary() {
+function useComparisonModel() {
   const runs = useWorkspaceRuns();
   const [choice, choose] = useComparisonChoice();
   const against = useBench((s) => s.against);
@@ -56,7 +56,20 @@ export function useComparisonSummary() {
   };
 }
 
-export type ComparisonSummary = ReturnType<typeof useComparisonSummary>;
+export type ComparisonSummary = ReturnType<typeof useComparisonModel>;
+
+const Summary = createContext<ComparisonSummary | null>(null);
+
+/** Works the comparison out once for everything under it (its panel, and the save that keeps it). */
+export function ComparisonSummaryProvider({ children }: { children: ReactNode }) {
+  return createElement(Summary.Provider, { value: useComparisonModel() }, children);
+}
+
+export function useComparisonSummary(): ComparisonSummary {
+  const s = useContext(Summary);
+  if (!s) throw new Error('The comparison was read outside its ComparisonSummaryProvider.');
+  return s;
+}
 
 const nullable = (v: Float64Array) => Array.from(v, (x) => (Number.isFinite(x) ? Number(x.toPrecision(6)) : null));
 

@@ -1,6 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef } from 'react';
-import { useSearchParams } from 'react-router-dom';
 import type { Mark, ViewDetail } from '../../../../server/schemas/views';
 import { useMe } from '../../auth/api/auth';
 import { useDemoRecordings } from '../../bench/api/demo-recordings';
@@ -10,6 +9,7 @@ import { projectRecordingsQuery } from '../../projects/api/recordings';
 import { useInLocalLibrary } from '../api/local-library';
 import { useMarks } from '../api/marks';
 import { useSnapshot } from '../api/snapshot';
+import { useSelectedMark } from './use-selected-mark';
 
 /**
  * What the view page reads: the caller's role in the view's project, the snapshot, the marks, the
@@ -34,16 +34,7 @@ export function useViewPage(view: ViewDetail) {
   const demos = useDemoRecordings();
   const demoFile = recording && demos.data?.some((d) => d.file === recording.name) ? recording.name : null;
 
-  const [params, setParams] = useSearchParams();
-  const selectedMarkId = Number(params.get('mark')) || null;
-  const selectMark = (markId: number) =>
-    setParams(
-      (p) => {
-        p.set('mark', String(markId));
-        return p;
-      },
-      { replace: true, preventScrollReset: true },
-    );
+  const { selectedMarkId, selectMark } = useSelectedMark();
   const scrolled = useRef(false);
   useEffect(() => {
     if (scrolled.current || !marks.data || selectedMarkId === null) return;

@@ -6,6 +6,7 @@ import { runDecodeBench } from './decode-bench';
 import { runExtractBench } from './extract-bench';
 import { runInverterBench } from './inverter-bench';
 import { runMapBench } from './map-bench';
+import { runPlaybackBench } from './playback-bench';
 
 const log = (line: string) => console.log(`  ${line}`);
 console.log('Fanlight benchmarks (this machine: Node ' + process.version + ')');
@@ -29,6 +30,10 @@ targets.push(`compare of two 20 s run-ups under 6 s: ${compare.bestS < 6 ? 'met'
 console.log('Vold-Kalman extraction (batch CLI):');
 const extract = runExtractBench(log);
 targets.push(`extract on 20 s, 3 components under 5 s: ${extract.bestS < 5 ? 'met' : 'NOT met'}`);
+console.log('listening: Vold-Kalman playback blocks (workers/dsp):');
+const playback = runPlaybackBench(log);
+targets.push(`first playback block under 0.5 s: ${playback.firstBlockS < 0.5 ? 'met' : 'NOT met'}`);
+targets.push(`playback processing above 1.5× real time: ${playback.realTimeFactor > 1.5 ? 'met' : 'NOT met'} (${playback.realTimeFactor.toFixed(1)}×)`);
 console.log('the Bench (headless Chromium):');
 const bench = await runBrowserBench(log);
 if (bench) {

@@ -192,7 +192,7 @@ describe('filterBlock / filterRange', () => {
   }, 20_000);
 
   it('follows a carrier step (8 → 12 kHz at mid-run): the family is removed ≥ 25 dB away from ±0.1 s of the step', () => {
-    const fcStep = (t: number) => (t < T / 2 ? 8000 : 12_000) - 0; // Hz
+    const fcStep = (t: number) => (t < T / 2 ? 8000 : 12_000); // Hz
     // 2fc − fe would pass 0.48·fs after the step; fc − fe stays in range (8 kHz − fe → 12 kHz − fe)
     const law = family(1, -1, fcStep);
     const fam = tone(N, FS, law, () => 0.02, 0.4);
@@ -206,14 +206,49 @@ describe('filterBlock / filterRange', () => {
     expect(Math.abs(levelDb(out, laws.o8, inside) - dB(A.o8))).toBeLessThan(0.5);
   }, 20_000);
 
+  it('solves a line alone as voldKalman does with K = 1 (the shared real factorisation)', () => {
+    const n = FS; // one second, one block with no padding beyond the signal
+    const x = y.subarray(0, n);
+    const [f] = lineFrequencies([L.o96], layout, FS, 0, n);
+    const want = voldKalman(x, FS, [f], { bandwidthHz: B, blockSamples: n }).signal(0);
+    const got = filterBlock(x, FS, [L.o96], layout, 0, n, { bandwidthHz: B, processing: 'isolate' });
+    let e = 0;
+    let s = 0;
+    for (let i = 0; i < n; i++) {
+      e += (got[i] - want[i]) ** 2;
+      s += want[i] ** 2;
+    }
+    expect(10 * Math.log10(e / s)).toBeLessThan(-80);
+  });
+
+  it('leaves out a line above 0.48·fs for a whole block, and fades it out where it leaves the range', () => {
+    // order 200 runs 3.3 → 13.3 kHz and passes 0.48·fs = 12 288 Hz at 3686.4 rpm, t = 3.582 s
+    const high = { guide: { kind: 'order' as const, order: 200 }, ctx };
+    const tc = (3686.4 - 1000) / 750;
+    const from = Math.round(3.7 * FS);
+    const iso = filterBlock(y, FS, [high], layout, from, N, { bandwidthHz: B, processing: 'isolate' });
+    expect(iso.every((v) => v === 0)).toBe(true);
+    const rem = filterBlock(y, FS, [high], layout, from, N, { bandwidthHz: B, processing: 'remove' });
+    expect(Array.from(rem)).toEqual(Array.from(y.subarray(from)));
+    // a tone on that order: isolated whole well before the edge, faded to nothing at it, nothing after
+    const x = tone(N, FS, order(200), () => 0.02, 0);
+    const a = Math.round((tc - 0.2) * FS);
+    const out = filterBlock(x, FS, [high], layout, a, Math.round((tc + 0.1) * FS), { bandwidthHz: B, processing: 'isolate' });
+    const at = (t: number) => Math.round((t - (tc - 0.2)) * FS);
+    const peak = (t0: number, t1: number) => Math.max(...Array.from(out.subarray(at(t0), at(t1))).map(Math.abs));
+    expect(Math.abs(dB(peak(tc - 0.15, tc - 0.1)) - dB(0.02))).toBeLessThan(0.5);
+    expect(peak(tc - 0.0005, tc)).toBeLessThan(0.001);
+    expect(peak(tc + 0.0005, tc + 0.1)).toBe(0);
+  });
+
   it('does not throw at the signal ends, outside it, or for lines it cannot follow, and returns to − from samples', () => {
     const opts = { bandwidthHz: B, processing: 'remove' as const };
     const blind = { guide: { kind: 'family' as const, m: 1, n: 0, per: 'electrical' as const }, ctx: { rpm: frameRpm } }; // no carrier known
-    const high = { guide: { kind: 'order' as const, order: 400 }, ctx }; // above 0.48·fs throughout (6.7–27 kHz at fs 25.6 kHz: partly)
+    const high = { guide: { kind: 'order' as const, order: 400 }, ctx }; // 6.7 → 27 kHz: above 0.48·fs from t = 1.12 s
     const lines = [L.o8, L.o8, blind, high, L.fm];
-    for (const [from, to] of [[0, N], [0, 100], [N - 100, N], [-50, 30], [N - 30, N + 70], [N + 5, N + 9], [10, 10]]) {
+    for (const [from, to] of [[0, N], [0, 100], [N - 100, N], [-50, 30], [N - 30, N + 70], [N + 5, N + 9], [10, 10], [100.4, 200.6]]) {
       const out = filterBlock(y, FS, lines, layout, from, to, opts);
-      expect(out.length).toBe(to - from);
+      expect(out.length).toBe(Math.round(to) - Math.round(from));
       expect(out.every(Number.isFinite)).toBe(true);
     }
     // samples outside the signal are silent

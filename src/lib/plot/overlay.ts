@@ -17,6 +17,8 @@ export const overlay = {
   markHalo: withAlpha(palette.ink[950], 0.8),
   pinned: withAlpha(palette.accent.DEFAULT, 0.7),
   crosshair: withAlpha(palette.mist[100], 0.35),
+  /** Where the sound is playing */
+  playHead: palette.ok,
   zoomBoxFill: withAlpha(palette.accent.DEFAULT, 0.12),
   zoomBoxStroke: withAlpha(palette.accent.DEFAULT, 0.9),
   text: palette.mist[100],

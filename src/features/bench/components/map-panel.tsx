@@ -25,6 +25,7 @@ export function MapPanel() {
   const view = useStore(live.viewport);
   const a = useBenchActions();
   const recordingName = useBench((s) => s.recording.entry.name);
+  const runId = useBench((s) => s.recording.entry.fingerprint);
   const layout = useBench((s) => s.map.layout);
   const isTimeMap = useBench((s) => s.against === 'time');
   const raster = useBench((s) => s.raster);
@@ -105,6 +106,7 @@ export function MapPanel() {
                 frameTimes={frameTimes}
                 frameRpm={frameRpm}
                 pinnedX={pinnedX}
+                runId={runId}
                 mode={mode}
                 stores={live}
                 markPainted={isTimeMap}

@@ -2,7 +2,11 @@ import type { Weighting } from '../../../../workers/dsp/weighting';
 import { nearestLine } from '../map/guides';
 import type { Viewport } from '../map/viewport';
 import { useBench, useBenchLive } from '../session/bench-session';
-import { useStore } from '../session/store';
+import { createStore, useStore } from '../session/store';
+import { useListenIfAny } from '../listen/listen-context';
+import type { PlayHead } from '../listen/listen-controller';
+
+const noPlayHead = createStore<PlayHead | null>(null);
 
 const fmt = (v: number, decimals: number) => v.toFixed(decimals);
 
@@ -27,6 +31,12 @@ export function Readout() {
   const weighting: Weighting = useBench((s) => s.settings.weighting);
   const against = useBench((s) => s.against);
   const onMap = probe && probe.from === 'map' ? probe : null;
+  // while the sound plays, the readout follows the play head wherever the pointer is not on the map
+  const listen = useListenIfAny();
+  const head = useStore(listen?.playHead ?? noPlayHead);
+  const runId = useBench((s) => s.recording.entry.fingerprint);
+  const playing = head && listen?.playing && head.runId === runId ? head : null;
+  const at = onMap ?? playing;
   const dB = weighting === 'Z' ? 'dB' : `dB(${weighting})`;
   const fDecimals = binHz < 1 ? 2 : binHz < 10 ? 1 : 0;
   const near = onMap ? nearestLine(lines, onMap.frame, onMap.f, against === 'speed' ? onMap.rpm : null) : null;
@@ -34,10 +44,15 @@ export function Readout() {
   return (
     <div className="flex min-h-8 flex-wrap items-center gap-x-5 gap-y-1 rounded-md border border-ink-800 bg-ink-950/60 px-3 py-1.5 text-xs text-mist-500" data-testid="map-readout" aria-live="off">
       <span>
-        t <span className={`${cell} w-20`}>{onMap ? `${fmt(onMap.timeS, 3)} s` : '—'}</span>
+        {!onMap && playing ? (
+          <span className="text-ok" aria-hidden>
+            ▶{' '}
+          </span>
+        ) : null}
+        t <span className={`${cell} w-20`}>{at ? `${fmt(at.timeS, 3)} s` : '—'}</span>
       </span>
       <span>
-        n <span className={`${cell} w-20`}>{onMap && Number.isFinite(onMap.rpm) ? `${fmt(onMap.rpm, 0)} rpm` : '—'}</span>
+        n <span className={`${cell} w-20`}>{at && Number.isFinite(at.rpm) ? `${fmt(at.rpm, 0)} rpm` : '—'}</span>
       </span>
       <span>
         f <span className={`${cell} w-24`}>{onMap ? `${fmt(onMap.f, fDecimals)} Hz` : '—'}</span>

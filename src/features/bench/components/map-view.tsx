@@ -9,6 +9,8 @@ import { paintLevels } from '../map/paint-levels';
 import type { Extents } from '../map/viewport';
 import type { BenchStores } from '../session/live-stores';
 import type { BenchMark } from '../view-state/view-snapshot';
+import { useListenIfAny } from '../listen/listen-context';
+import type { PlayHead } from '../listen/listen-controller';
 import { useMapGestures, type GestureProps } from './use-map-gestures';
 
 interface Props extends GestureProps {
@@ -28,6 +30,8 @@ interface Props extends GestureProps {
   /** Marks drawn over the map: the saved view's and those waiting to be saved */
   marks: BenchMark[];
   label: string;
+  /** The run this map shows (the play head is drawn on it when that run is heard, or at its speed against speed) */
+  runId?: string;
 }
 
 let redraws = 0;
@@ -54,6 +58,7 @@ export function MapView(props: Props) {
   const draw = useRef<(layers: Layers) => void>(() => undefined);
   const [scheduler] = useState(() => createDrawScheduler((layers) => draw.current(layers)));
   const { handlers, drag } = useMapGestures(mapRef, boxRef, stores, props, scheduler);
+  const listen = useListenIfAny();
 
   draw.current = (n: Layers) => {
     const p = latest.current;
@@ -78,11 +83,14 @@ export function MapView(props: Props) {
     }
     if ((n.cursor || n.guides) && cursorRef.current) {
       const d = drag.current;
+      const playX = playHeadX(listen?.playHead.get() ?? null, p.against, p.runId);
+      if (boxRef.current) boxRef.current.dataset.playX = playX === null ? '' : String(playX);
       paintCursor(cursorRef.current, {
         view,
         swapped: p.swapped,
         hasMap,
         pinnedX: p.pinnedX,
+        playX,
         pointer: p.stores.pointer.get(),
         marks: p.marks,
         box: d && d.box && d.moved ? d : null,
@@ -166,11 +174,13 @@ export function MapView(props: Props) {
   useEffect(() => {
     const offView = stores.viewport.subscribe(() => scheduler.request({ map: true, guides: true, cursor: true }));
     const offPointer = stores.pointer.subscribe(() => scheduler.request({ cursor: true }));
+    const offPlay = listen?.playHead.subscribe(() => scheduler.request({ cursor: true }));
     return () => {
       offView();
       offPointer();
+      offPlay?.();
     };
-  }, [stores, scheduler]);
+  }, [stores, scheduler, listen]);
 
   const cursor = props.mode === 'pick' || props.mode === 'mark' ? 'cursor-copy' : props.mode === 'box' ? 'cursor-zoom-in' : 'cursor-crosshair';
 
@@ -182,4 +192,11 @@ export function MapView(props: Props) {
       <canvas ref={cursorRef} aria-hidden className="pointer-events-none absolute inset-0 block h-full w-full" />
     </div>
   );
+}
+
+/** The play head along a map's x: its speed against speed (any run), its time on the map of the run heard. */
+function playHeadX(head: PlayHead | null, against: 'time' | 'speed', runId: string | undefined): number | null {
+  if (!head) return null;
+  if (against === 'speed') return Number.isFinite(head.rpm) ? head.rpm : null;
+  return head.runId === runId ? head.timeS : null;
 }

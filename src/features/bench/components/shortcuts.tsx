@@ -9,6 +9,9 @@ export const SHORTCUTS: [string, string][] = [
   ['c', 'Add a carrier guide that follows the detected carrier'],
   ['m', 'Add marks: click for a point, Shift-drag for a box'],
   ['Shift + drag', 'Zoom into a box'],
+  ['Space', 'Play or pause (over the map: from the pointer)'],
+  ['p', 'Hear the processed sound or the original'],
+  ['r', 'Hear the other run at the same speed'],
   ['?', 'Show or hide this list'],
   ['Esc', 'Close this list, leave a pick mode'],
 ];

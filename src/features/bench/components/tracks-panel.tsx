@@ -7,6 +7,7 @@ import { dbUnit } from '../map/level-reference';
 import { useBench } from '../session/bench-session';
 import { BenchPanel } from './bench-panel';
 import { useCursorSync } from './cursor-sync';
+import { usePlayHeadOnPlot } from '../listen/use-play-head-on-plot';
 import { CsvButton, PLOT_HEIGHT, useDockInputs } from './dock-inputs';
 import { plotAxis, SERIES_COLOURS, UPlotChart } from './uplot-chart';
 import { palette } from '../../../config/theme';
@@ -62,7 +63,12 @@ export function TracksPanel() {
   }, [tracks, against, unit]);
 
   const data = useMemo((): uPlot.AlignedData => (tracks ? [tracks.aligned.x, ...tracks.aligned.rows] : [[]]), [tracks]);
-  const onChart = useCursorSync(p.stores, against, p.frameTimes, p.frameRpm);
+  const syncCursor = useCursorSync(p.stores, against, p.frameTimes, p.frameRpm);
+  const showPlayHead = usePlayHeadOnPlot(against);
+  const onChart = (u: uPlot | null) => {
+    syncCursor(u);
+    showPlayHead(u);
+  };
 
   const exportCsv = () => {
     if (!tracks) return;

@@ -7,6 +7,8 @@ import { ComparePanel } from '../workspace/compare-panel';
 import { ComparisonSummaryProvider } from '../workspace/use-comparison-summary';
 import { BenchWorkspace } from '../workspace/workspace';
 import type { ViewOnBench } from '../view-state/view-restore';
+import { ListenProvider } from '../listen/listen-context';
+import { PlaybackBar } from '../listen/playback-bar';
 import { BenchKeys } from './bench-keys';
 import { Dock } from './dock';
 import { FindingsPanel } from './findings-panel';
@@ -42,6 +44,7 @@ export function Workbench({
 }) {
   return (
     <BenchWorkspace>
+      <ListenProvider>
       <BaselineSession recording={recording} fromView={fromView} preferredProjectId={preferredProjectId}>
       <ComparisonSummaryProvider>
       {/* Narrow: one column. Wide: channels left, map centre, guides and findings right; in between,
@@ -54,6 +57,9 @@ export function Workbench({
         </div>
         <div className="@container flex min-w-0 flex-col gap-4 lg:col-start-2 lg:row-span-3 lg:row-start-1">
           <RecordingBar recording={recording} onClose={onClose} />
+          <ErrorBoundary region="Listening">
+            <PlaybackBar />
+          </ErrorBoundary>
           <ErrorBoundary region="The map">
             <MapPanel />
           </ErrorBoundary>
@@ -80,6 +86,7 @@ export function Workbench({
       <BenchKeys />
       </ComparisonSummaryProvider>
       </BaselineSession>
+      </ListenProvider>
     </BenchWorkspace>
   );
 }

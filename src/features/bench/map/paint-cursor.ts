@@ -8,6 +8,8 @@ export interface CursorScene {
   hasMap: boolean;
   /** The pinned moment along x (time or speed) */
   pinnedX: number | null;
+  /** The play head along x (time or speed), when this map's run is heard */
+  playX: number | null;
   /** The pointer in the map's terms; f NaN when it is on a plot */
   pointer: { x: number; f: number } | null;
   marks: BenchMark[];
@@ -38,6 +40,18 @@ export function paintCursor(canvas: HTMLCanvasElement, s: CursorScene): void {
     const [c, d] = g.toScreen(s.pinnedX, view.f[1]);
     line(a, b, c, d);
     ctx.setLineDash([]);
+  }
+  if (s.playX !== null && s.playX >= view.x[0] && s.playX <= view.x[1]) {
+    // the play head: a solid line with a small flag at the top of the frequency axis
+    ctx.strokeStyle = overlay.playHead;
+    ctx.lineWidth = 2 * dpr;
+    const [a, b] = g.toScreen(s.playX, view.f[0]);
+    const [c, d] = g.toScreen(s.playX, view.f[1]);
+    line(a, b, c, d);
+    ctx.fillStyle = overlay.playHead;
+    ctx.beginPath();
+    ctx.arc(c, d, 4 * dpr, 0, 2 * Math.PI);
+    ctx.fill();
   }
   if (s.pointer) {
     ctx.strokeStyle = overlay.crosshair;

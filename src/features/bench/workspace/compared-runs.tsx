@@ -110,6 +110,7 @@ function RunMap({ name, topDb, rangeDb, onRemove }: { name: string; topDb: numbe
   const lines = useBench((s) => s.lines);
   const frameTimes = useBench((s) => s.frameTimes);
   const frameRpm = useBench((s) => s.frameRpm);
+  const runId = useBench((s) => s.recording.entry.fingerprint);
   const status = useBench((s) => s.map.status);
   const report = useBench((s) => s.report);
   const speedMap = useBench((s) => s.speedMap);
@@ -160,6 +161,7 @@ function RunMap({ name, topDb, rangeDb, onRemove }: { name: string; topDb: numbe
           frameTimes={frameTimes}
           frameRpm={frameRpm}
           pinnedX={null}
+          runId={runId}
           mode="pan"
           stores={live}
           markPainted={false}

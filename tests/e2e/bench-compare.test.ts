@@ -10,7 +10,7 @@ import { demoRecordings } from '../../seeds/demo-recordings';
 import { demoProject } from '../../seeds/demo-scenario';
 import { synthesiseDrive, synthesiseTacho } from '../../seeds/synthetic-drive';
 import { writeWav } from '../../workers/io/wav-writer';
-import { launchBrowser, screenshot, signIn } from './browser';
+import { launchBrowser, screenshot, showBenchSection, signIn } from './browser';
 
 describe('comparing runs on the Bench (browser)', () => {
   const baseUrl = inject('baseUrl');
@@ -81,6 +81,7 @@ describe('comparing runs on the Bench (browser)', () => {
 
     // saved as a view: the comparison travels with it, without any raw file
     const title = `Firmware A against B, ${Date.now()}`;
+    await showBenchSection(page, 'Register and save');
     await page.getByLabel('View title').fill(title);
     await page.getByLabel('Save into project').selectOption({ label: demoProject.name });
     await page.getByRole('button', { name: 'Save view' }).click();
@@ -121,6 +122,7 @@ describe('comparing runs on the Bench (browser)', () => {
     await page.goto(`${baseUrl}/bench`);
     await page.getByRole('button', { name: `Open the demo recording ${demoRecordings[0].title}` }).click();
     await expect.poll(() => page.getByTestId('recording-name').textContent(), { timeout: 30_000 }).toBe(demoRecordings[0].file);
+    await showBenchSection(page, 'Recordings');
     // a short run-up of the same drive at 25.6 kHz (invented), accelerometer and tacho
     const fs = 25600;
     const rpm = (t: number) => 1000 + 1500 * t;

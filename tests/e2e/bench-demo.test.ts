@@ -1,7 +1,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { demoRecordings } from '../../seeds/demo-recordings';
-import { launchBrowser, screenshot, signIn } from './browser';
+import { launchBrowser, screenshot, showBenchSection, signIn } from './browser';
 
 describe('the demo recordings on the Bench (browser)', () => {
   const baseUrl = inject('baseUrl');
@@ -17,6 +17,7 @@ describe('the demo recordings on the Bench (browser)', () => {
     await page.waitForURL(`${baseUrl}/projects`);
     await page.goto(`${baseUrl}/bench`);
     await page.getByRole('button', { name: `Open the demo recording ${demoRecordings[0].title}` }).click();
+    await showBenchSection(page, 'Channels and speed');
     const rows = page.getByTestId('channel-list').locator('tbody tr');
     await expect.poll(() => rows.count(), { timeout: 30_000 }).toBe(3);
     expect(await page.getByLabel('Name of channel 1').inputValue()).toBe('acc inverter housing');

@@ -1,7 +1,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { testChannels, wav } from '../unit/io/wav-fixtures';
-import { launchBrowser, screenshot, signIn } from './browser';
+import { launchBrowser, screenshot, showBenchSection, signIn } from './browser';
 
 describe('the Bench takes a recording in (browser)', () => {
   const baseUrl = inject('baseUrl');
@@ -24,6 +24,8 @@ describe('the Bench takes a recording in (browser)', () => {
     // 12.5 s of 4 channels, 24-bit at 51.2 kHz (7.7 MB), made here like an acquisition export
     const bytes = wav(testChannels(4, 640_000, 51200), { bits: 24, sampleRateHz: 51200 });
     await page.getByTestId('drop-zone-input').setInputFiles({ name: 'bench-run-up.wav', mimeType: 'audio/wav', buffer: Buffer.from(bytes) });
+    await showBenchSection(page, 'Channels and speed');
+    await showBenchSection(page, 'Recordings');
 
     const rows = page.getByTestId('channel-list').locator('tbody tr');
     await expect.poll(() => rows.count(), { timeout: 20_000 }).toBe(4);
@@ -53,6 +55,8 @@ describe('the Bench takes a recording in (browser)', () => {
       mimeType: 'audio/wav',
       buffer: Buffer.from(wav(testChannels(2, 8000))),
     });
+    await showBenchSection(page, 'Channels and speed');
+    await showBenchSection(page, 'Recordings');
     await expect.poll(() => page.getByTestId('channel-list').locator('tbody tr').count(), { timeout: 20_000 }).toBe(2);
     await page.getByTestId('drop-zone-input').setInputFiles({
       name: 'cut.wav',
@@ -78,6 +82,7 @@ describe('the Bench takes a recording in (browser)', () => {
       // the header promises 48 000 frames; the file holds 20 000 of them
       buffer: Buffer.from(whole.subarray(0, 44 + 20_000 * 4)),
     });
+    await showBenchSection(page, 'Channels and speed');
     await expect.poll(() => page.getByTestId('channel-list').locator('tbody tr').count(), { timeout: 20_000 }).toBe(2);
     const notice = page.getByTestId('recording-warnings');
     await expect.poll(() => notice.isVisible()).toBe(true);

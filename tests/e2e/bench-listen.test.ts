@@ -82,6 +82,7 @@ describe('listening on the Bench (browser)', () => {
     await page.keyboard.press('c');
     await page.getByLabel('Track fc+fe', { exact: true }).first().check();
     // a speed range around 8000 rpm, the families alone
+    await page.getByRole('button', { name: 'Listening options' }).click();
     await page.getByLabel('Loop', { exact: true }).selectOption('speed');
     await page.getByLabel('Loop from rpm').fill('7800');
     await page.getByLabel('Loop to rpm').fill('8200');

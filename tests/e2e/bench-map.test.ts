@@ -2,7 +2,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { wav } from '../unit/io/wav-fixtures';
 import path from 'node:path';
-import { ARTEFACTS_DIR, launchBrowser, screenshot, signedInPage, signIn } from './browser';
+import { ARTEFACTS_DIR, launchBrowser, screenshot, showBenchSection, showMapSettings, signIn, signedInPage } from './browser';
 
 const FS_HZ = 51200;
 const DURATION_S = 6;
@@ -80,6 +80,8 @@ describe('the Bench computes the map of the open recording (browser)', () => {
 
     const bytes = wav(sweepRecording(), { bits: 24, sampleRateHz: FS_HZ });
     await page.getByTestId('drop-zone-input').setInputFiles({ name: 'sweep-run-up.wav', mimeType: 'audio/wav', buffer: Buffer.from(bytes) });
+    await showBenchSection(page, 'Channels and speed');
+    await showMapSettings(page);
 
     const map = page.getByRole('region', { name: 'Map' });
     const progress = page.getByRole('progressbar', { name: 'Computing the map' });
@@ -182,6 +184,7 @@ describe('the Bench computes the map of the open recording (browser)', () => {
     const name = `ramp-${Date.now()}.wav`;
     await page.getByTestId('drop-zone-input').setInputFiles({ name, mimeType: 'audio/wav', buffer: Buffer.from(wav([sweep.subarray(0, FS_HZ * 2)], { bits: 24, sampleRateHz: FS_HZ })) });
     await expect.poll(() => page.getByTestId('map-done').isVisible(), { timeout: 30_000 }).toBe(true);
+    await showBenchSection(page, 'Channels and speed');
     const panel = page.getByRole('region', { name: 'Speed source' });
     await panel.getByLabel('Speed from').selectOption('ramp');
     await panel.getByLabel('Start (rpm)').fill('500');

@@ -10,7 +10,7 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { demoProject } from '../../seeds/demo-scenario';
-import { canvasPixels, launchBrowser, screenshot, signedInPage, signIn } from './browser';
+import { canvasPixels, launchBrowser, screenshot, showBenchSection, showMapSettings, signIn, signedInPage } from './browser';
 import { runUpWav } from './run-up';
 
 const DURATION_S = 6;
@@ -44,6 +44,9 @@ describe('a finding from the Bench to a colleague and back (browser)', () => {
     const { context, page, errors } = await signedInPage(browser, baseUrl, 'engineer@fanlight.test', { viewport: { width: 1680, height: 1050 } });
 
     await page.getByTestId('drop-zone-input').setInputFiles({ name: fileName, mimeType: 'audio/wav', buffer: Buffer.from(runUp()) });
+    await showBenchSection(page, 'Channels and speed');
+    await showBenchSection(page, 'Register and save');
+    await showMapSettings(page);
     await expect.poll(() => page.getByTestId('channel-list').locator('tbody tr').count(), { timeout: 20_000 }).toBe(2);
     await page.getByLabel('Quantity of channel 1').selectOption('acceleration');
     await page.getByLabel('Quantity of channel 2').selectOption('tacho');

@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { ARTEFACTS_DIR, launchBrowser, screenshot, signedInPage } from './browser';
+import { ARTEFACTS_DIR, launchBrowser, screenshot, showBenchSection, signedInPage } from './browser';
 import { FS_HZ, runUpTimeline, runUpWav } from './run-up';
 
 const DURATION_S = 12;
@@ -66,6 +66,7 @@ describe('the Bench as a workbench (browser)', () => {
     const { context, page, errors } = await signedInPage(browser, baseUrl, 'engineer@fanlight.test', { viewport: { width: 1680, height: 1050 }, acceptDownloads: true });
 
     await page.getByTestId('drop-zone-input').setInputFiles({ name: 'drive-run-up.wav', mimeType: 'audio/wav', buffer: Buffer.from(runUp()) });
+    await showBenchSection(page, 'Channels and speed');
     await expect.poll(() => page.getByTestId('channel-list').locator('tbody tr').count(), { timeout: 20_000 }).toBe(2);
     await page.getByLabel('Quantity of channel 1').selectOption('acceleration');
     await page.getByLabel('Quantity of channel 2').selectOption('tacho');

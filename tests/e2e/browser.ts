@@ -72,3 +72,15 @@ export async function signedInPage(
   await page.goto(`${baseUrl}${options.path ?? '/bench'}`);
   return { context, page, errors };
 }
+
+/** Opens a section of the Bench's left rail, unless it is open already (others stay as they are). */
+export async function showBenchSection(page: Page, name: 'Recordings' | 'Channels and speed' | 'Register and save') {
+  const button = page.getByRole('navigation', { name: 'Bench sections' }).getByRole('button', { name, exact: true });
+  if ((await button.getAttribute('aria-expanded')) !== 'true') await button.click();
+}
+
+/** Shows the map's settings row above the map, unless it is shown already. */
+export async function showMapSettings(page: Page) {
+  const button = page.getByRole('button', { name: 'Map settings', exact: true });
+  if ((await button.getAttribute('aria-expanded')) !== 'true') await button.click();
+}

@@ -126,41 +126,55 @@ export function BenchPage() {
     </>
   );
 
+  const privacy = 'Recordings stay in this browser; registering sends only their description, never the samples.';
+
+  if (open && fromView.kind !== 'loading') {
+    const banner = (
+      <>
+        {fromView.kind === 'unusable' && <Notice tone="error">{fromView.message}</Notice>}
+        {fromView.kind === 'ready' && (
+          <p className="text-sm text-mist-300" data-testid="bench-from-view">
+            Started from the saved view{' '}
+            <Link to={paths.view(fromView.value.view.id)} className={linkClass}>
+              {fromView.value.view.title}
+            </Link>
+            : its settings, guides, zoom and marks.
+          </p>
+        )}
+      </>
+    );
+    // the open Bench fills the window under the header and does not scroll as a page (bench-layout.tsx)
+    return (
+      <div className="px-1.5 py-1.5 lg:h-[calc(100dvh-3rem)]">
+        <h1 className="sr-only">Bench</h1>
+        <ErrorBoundary key={`${open.entry.fingerprint}:${fromView.kind === 'ready' ? fromView.value.view.id : ''}`} region="The workbench">
+          <Workbench
+            recording={open}
+            intake={
+              <>
+                {intake}
+                <p className="text-xs text-mist-500">{privacy}</p>
+              </>
+            }
+            banner={banner}
+            preferredProjectId={preferredProjectId}
+            fromView={fromView.kind === 'ready' ? fromView.value : undefined}
+            onClose={close}
+            compared={comparison.compared}
+            onStopComparing={comparison.remove}
+          />
+        </ErrorBoundary>
+      </div>
+    );
+  }
+
   return (
     <div className="mx-auto max-w-[150rem] px-4 py-4">
       <h1 className="sr-only">Bench</h1>
-      {open && fromView.kind === 'loading' ? (
+      {open ? (
         <p className="px-2 py-8 text-sm text-mist-500" data-testid="bench-view-loading">
           Opening the saved view…
         </p>
-      ) : open ? (
-        <>
-          {fromView.kind === 'unusable' && (
-            <div className="mb-4">
-              <Notice tone="error">{fromView.message}</Notice>
-            </div>
-          )}
-          {fromView.kind === 'ready' && (
-            <p className="mb-3 text-sm text-mist-300" data-testid="bench-from-view">
-              Started from the saved view{' '}
-              <Link to={paths.view(fromView.value.view.id)} className={linkClass}>
-                {fromView.value.view.title}
-              </Link>
-              : its settings, guides, zoom and marks.
-            </p>
-          )}
-          <ErrorBoundary key={`${open.entry.fingerprint}:${fromView.kind === 'ready' ? fromView.value.view.id : ''}`} region="The workbench">
-            <Workbench
-              recording={open}
-              intake={intake}
-              preferredProjectId={preferredProjectId}
-              fromView={fromView.kind === 'ready' ? fromView.value : undefined}
-              onClose={close}
-              compared={comparison.compared}
-              onStopComparing={comparison.remove}
-            />
-          </ErrorBoundary>
-        </>
       ) : (
         <div className="grid items-start gap-4 lg:grid-cols-[17.5rem_minmax(0,1fr)]">
           <div className="flex flex-col gap-4">{intake}</div>
@@ -172,9 +186,7 @@ export function BenchPage() {
           </p>
         </div>
       )}
-      <footer className="mt-8 border-t border-ink-800 pt-3 text-xs text-mist-500">
-        Recordings stay in this browser; registering sends only their description, never the samples.
-      </footer>
+      <footer className="mt-8 border-t border-ink-800 pt-3 text-xs text-mist-500">{privacy}</footer>
     </div>
   );
 }

@@ -9,7 +9,7 @@ export function AppShell() {
   const navigate = useNavigate();
   return (
     <div className="flex min-h-screen flex-col">
-      <header className="flex items-center gap-6 border-b border-ink-800 bg-ink-900 px-5 py-2.5">
+      <header className="flex h-12 shrink-0 items-center gap-6 border-b border-ink-800 bg-ink-900 px-5">
         <Link to={paths.projects} className="flex items-center gap-2 text-accent">
           <Logo />
           <span className="text-base font-semibold tracking-wide text-mist-100">Fanlight</span>

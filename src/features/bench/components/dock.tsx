@@ -1,18 +1,27 @@
-import { memo } from 'react';
+import { memo, type ReactNode } from 'react';
+import { ErrorBoundary } from '../../../components/errors/error-boundary';
 import { BandsPanel } from './bands-panel';
+import { MarkTools } from './mark-tools';
 import { SlicePanel } from './slice-panel';
 import { TracksPanel } from './tracks-panel';
 
-/** The dock below the map: tracks of the tracked guides, the spectrum slice at the pointer, the band levels. */
-export const Dock = memo(function Dock() {
+/**
+ * The dock beside the map: the tracks of the tracked guides always in sight, then (scrolling on their
+ * own) the marks, the findings — given, so they keep their own error boundary — the spectrum slice at the pointer
+ * and the band levels.
+ */
+export const Dock = memo(function Dock({ findings }: { findings: ReactNode }) {
   return (
-    <div className="grid gap-4 @3xl:grid-cols-2 @[96rem]:grid-cols-[minmax(0,1.45fr)_minmax(0,1fr)_minmax(0,1fr)]" data-testid="dock">
-      <div className="@3xl:col-span-2 @[96rem]:col-span-1">
+    <>
+      <div className="lg:shrink-0">
         <TracksPanel />
       </div>
-      <SlicePanel />
-      <BandsPanel />
-    </div>
+      <div className="flex flex-col gap-3 lg:min-h-[9rem] lg:flex-1 lg:overflow-y-auto lg:pr-1" data-testid="dock">
+        <MarkTools />
+        <ErrorBoundary region="The findings">{findings}</ErrorBoundary>
+        <SlicePanel />
+        <BandsPanel />
+      </div>
+    </>
   );
 });
-

@@ -2,7 +2,8 @@ import { useRef } from 'react';
 import { fullView } from '../map/viewport';
 import { useBench, useBenchActions, useBenchLive } from '../session/bench-session';
 import { useStore } from '../session/store';
-import { BenchPanel, toolButtonClass } from './bench-panel';
+import { toolButtonClass } from './bench-panel';
+import { useBenchLayout } from '../layout/use-bench-layout';
 import { BottomAxis, LeftAxis } from '../../../components/plot/map-axes';
 import { mapAxes } from '../map/map-axes';
 import { MapScale } from './map-scale';
@@ -10,12 +11,11 @@ import { MapNotices, MapStatusLine } from './map-status';
 import { MapToolbar } from './map-toolbar';
 import { MapView } from './map-view';
 import { Readout } from './map-readout';
-import { MarkTools } from './mark-tools';
 import { useMapPngExport } from './use-map-png-export';
 import { MapSettingsBar, windowLabel } from './map-settings';
 
-// The map and the colour bar share this height so their edges line up.
-const MAP_HEIGHT = 'h-[clamp(22rem,58vh,50rem)]';
+// The map, its left axis and the colour bar fill the height left to them, so their edges line up.
+const MAP_HEIGHT = 'min-h-0 flex-1';
 
 const fmt = (v: number, decimals: number) => v.toFixed(decimals);
 
@@ -58,34 +58,53 @@ export function MapPanel() {
     subtitle: layout ? `${windowLabel[windowName]} · ${layout.blockSize} · Δf ${fmt(layout.binHz, 2)} Hz · against ${against}${swapped ? ' · axes swapped' : ''}` : '',
   });
 
-  return (
-    <BenchPanel
-      title="Map"
-      actions={
-        <button
-          type="button"
-          className={toolButtonClass()}
-          data-testid="export-map-png"
-          data-export-size={exportSize ?? undefined}
-          disabled={!raster}
-          onClick={() => void exportPng()}
-          title="The map as you see it, with guides, axes and colour bar"
-        >
-          Export PNG
-        </button>
-      }
+  const [layoutPrefs, setLayout] = useBenchLayout();
+  const exportButton = (
+    <button
+      type="button"
+      className={toolButtonClass()}
+      data-testid="export-map-png"
+      data-export-size={exportSize ?? undefined}
+      disabled={!raster}
+      onClick={() => void exportPng()}
+      title="The map as you see it, with guides, axes and colour bar"
     >
-      <div className="flex flex-col gap-3">
-        <MapSettingsBar />
-        <MapToolbar view={view} onReset={() => extents && live.viewport.set(fullView(extents))} />
-        <div className="flex">
+      Export PNG
+    </button>
+  );
+  const settingsToggle = (
+    <button
+      type="button"
+      className={toolButtonClass(layoutPrefs.mapSettings)}
+      aria-expanded={layoutPrefs.mapSettings}
+      aria-controls="map-settings"
+      onClick={() => setLayout({ mapSettings: !layoutPrefs.mapSettings })}
+      title="Channel, window, block size, overlap, weighting, level range and colours"
+    >
+      Map settings
+    </button>
+  );
+
+  return (
+    <section aria-labelledby="map-heading" className="flex min-h-[30rem] flex-1 flex-col gap-1.5 rounded-lg border border-ink-800 bg-ink-900 px-3 py-1.5">
+      <h2 id="map-heading" className="sr-only">
+        Map
+      </h2>
+      {layoutPrefs.mapSettings && (
+        <div id="map-settings">
+          <MapSettingsBar />
+        </div>
+      )}
+        <MapToolbar view={view} onReset={() => extents && live.viewport.set(fullView(extents))} before={settingsToggle} after={exportButton} />
+        <div className="flex min-h-0 flex-1" data-testid="map-figure">
           <div className="flex w-14 shrink-0 flex-col">
             <div className="h-7" />
             <div className={MAP_HEIGHT}>
               <LeftAxis axis={axes.left} testId={swapped ? 'map-time-axis' : 'map-frequency-axis'} />
             </div>
+            <div className="h-6" />
           </div>
-          <div className="min-w-0 flex-1 pl-2">
+          <div className="flex min-w-0 flex-1 flex-col pl-2">
             <div className="flex h-7 items-end justify-between gap-3 pb-1 text-xs">
               <p className="truncate font-mono text-[11px] text-mist-500" data-testid="map-resolution">
                 {layout && layout.frames > 0
@@ -139,12 +158,14 @@ export function MapPanel() {
           </div>
           <MapScale lut={lut} topDb={topDb} rangeDb={rangeDb} reference={reference.label} unit={reference.unit} weighting={weighting} heightClass={MAP_HEIGHT} />
         </div>
-        <Readout />
-        <MarkTools />
-        <MapStatusLine exportError={exportError} />
+        <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+          <div className="min-w-0 flex-[1_1_34rem]">
+            <Readout />
+          </div>
+          <MapStatusLine exportError={exportError} />
+        </div>
         <MapNotices />
-      </div>
-    </BenchPanel>
+    </section>
   );
 }
 

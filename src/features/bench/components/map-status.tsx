@@ -16,7 +16,7 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
   const shared = useBench((s) => typeof SharedArrayBuffer !== 'undefined' && s.map.power?.power.buffer instanceof SharedArrayBuffer);
   const percent = status.kind === 'computing' || status.kind === 'cancelled' ? Math.round(status.fraction * 100) : 0;
   return (
-    <div className="flex min-h-7 flex-wrap items-center gap-3 pl-16">
+    <div className="flex min-h-7 flex-wrap items-center gap-3">
       {status.kind === 'computing' && (
         <>
           <div
@@ -51,7 +51,7 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
         </p>
       )}
       {exportError && <p className="text-xs text-danger">{exportError}</p>}
-      <p className="ml-auto text-[11px] text-mist-500">Drag to pan · wheel to zoom · Shift-drag a box · double-click for the whole map · ? for keys</p>
+      <p className="text-[11px] text-mist-500" title="Drag to pan · wheel to zoom · Shift-drag a box · double-click for the whole map · ? for all the keys">Drag to pan · wheel to zoom · ? for keys</p>
     </div>
   );
 }

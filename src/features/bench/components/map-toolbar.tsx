@@ -1,10 +1,11 @@
+import type { ReactNode } from 'react';
 import type { Viewport } from '../map/viewport';
 import { useBench, useBenchActions } from '../session/bench-session';
 import { toolButtonClass } from './bench-panel';
 import { ViewRange } from './map-readout';
 
 /** Against time or speed, swap, zoom, box zoom, add marks, reset, and the visible span. */
-export function MapToolbar({ view, onReset }: { view: Viewport | null; onReset: () => void }) {
+export function MapToolbar({ view, onReset, before, after }: { view: Viewport | null; onReset: () => void; before?: ReactNode; after?: ReactNode }) {
   const a = useBenchActions();
   const against = useBench((s) => s.against);
   const speedAvailable = useBench((s) => s.frameRpm !== null);
@@ -12,6 +13,8 @@ export function MapToolbar({ view, onReset }: { view: Viewport | null; onReset: 
   const mode = useBench((s) => s.mode);
   return (
     <div className="flex flex-wrap items-center gap-2" data-testid="map-toolbar">
+      {before}
+      {before && <span className="h-5 w-px bg-ink-800" aria-hidden />}
       <div className="flex items-center gap-1" role="group" aria-label="Against">
         <span className="mr-1 text-[11px] font-medium text-mist-500">Against</span>
         <button type="button" className={toolButtonClass(against === 'time')} aria-pressed={against === 'time'} onClick={() => a.setAgainst('time')}>
@@ -61,6 +64,7 @@ export function MapToolbar({ view, onReset }: { view: Viewport | null; onReset: 
         Reset view
       </button>
       <ViewRange view={view} against={against} />
+      {after}
     </div>
   );
 }

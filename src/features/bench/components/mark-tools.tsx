@@ -1,9 +1,10 @@
 import { MARK_TEXT_MAX } from '../../../../server/schemas/views';
 import { TextField } from '../../../components/ui/text-field';
 import { useBench, useBenchActions } from '../session/bench-session';
+import { BenchPanel } from './bench-panel';
 import { GuideMarkPicker, markableGuides, PendingMarks, SavedMarks } from './bench-marks';
 
-/** Under the map while marking (or with marks about): the next mark's text, the guide marks, the marks so far. */
+/** Beside the map while marking (or with marks about): the next mark's text, the guide marks, the marks so far. */
 export function MarkTools() {
   const a = useBenchActions();
   const mode = useBench((s) => s.mode);
@@ -16,7 +17,8 @@ export function MarkTools() {
   const firstPending = useBench((s) => s.firstPending);
   if (mode !== 'mark' && marks.length === 0 && savedMarks.marks.length === 0) return null;
   return (
-    <div className="flex flex-col gap-3 pl-16" data-testid="mark-tools">
+    <BenchPanel title="Marks">
+    <div className="flex flex-col gap-3" data-testid="mark-tools">
       {fromView && <SavedMarks fromView={fromView} marks={savedMarks} against={fromView.restore.against ?? against} />}
       <div className="flex flex-wrap items-end gap-3">
         <TextField
@@ -36,5 +38,6 @@ export function MarkTools() {
       </div>
       <PendingMarks marks={marks} firstNumber={firstPending} against={against} onChange={a.setMarks} />
     </div>
+    </BenchPanel>
   );
 }

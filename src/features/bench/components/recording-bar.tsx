@@ -1,9 +1,10 @@
+import type { ReactNode } from 'react';
 import { Notice } from '../../../components/ui/notice';
 import { formatHz, formatSeconds } from '../../../lib/format';
 import type { OpenRecording } from '../hooks/use-recording-reader';
 
-/** The open recording's name, format, rate, length and channels, what reading it reported, and Close. */
-export function RecordingBar({ recording, onClose }: { recording: OpenRecording; onClose: () => void }) {
+/** The open recording's name, format, rate, length and channels, what reading it reported, Close, and the listening controls (children). */
+export function RecordingBar({ recording, onClose, children }: { recording: OpenRecording; onClose: () => void; children?: ReactNode }) {
   const { header, nonFinite } = recording.decoded;
   const channelName = (index: number) => header.channels.find((c) => c.index === index)?.name ?? `ch${index + 1}`;
   const reports = [
@@ -15,8 +16,8 @@ export function RecordingBar({ recording, onClose }: { recording: OpenRecording;
   ];
   const fact = 'font-mono text-mist-100';
   return (
-    <section aria-label="Recording" className="flex flex-col gap-2 rounded-lg border border-ink-800 bg-ink-900 px-4 py-2.5">
-      <div className="flex flex-wrap items-center gap-x-5 gap-y-1 text-xs text-mist-500">
+    <section aria-label="Recording" className="flex shrink-0 flex-col gap-2 rounded-lg border border-ink-800 bg-ink-900 px-3 py-1.5">
+      <div className="flex flex-wrap items-center gap-x-3 gap-y-1 text-xs text-mist-500">
         <p className="min-w-0 break-all text-sm font-medium text-mist-100" data-testid="recording-name">
           {recording.entry.name}
         </p>
@@ -45,6 +46,7 @@ export function RecordingBar({ recording, onClose }: { recording: OpenRecording;
           </span>{' '}
           {header.channels.length === 1 ? 'channel' : 'channels'}
         </span>
+        {children}
         <button type="button" className="ml-auto rounded-md px-2 py-1 text-xs text-mist-300 hover:bg-ink-800 hover:text-mist-100" onClick={onClose}>
           Close
         </button>

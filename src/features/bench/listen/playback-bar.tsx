@@ -3,6 +3,7 @@ import { useMe } from '../../auth/api/auth';
 import { smallInputClass, smallSelectClass, toolButtonClass } from '../components/bench-panel';
 import { useBench, useBenchLive } from '../session/bench-session';
 import { useStore } from '../session/store';
+import { useBenchLayout } from '../layout/use-bench-layout';
 import { useWorkspaceRuns } from '../workspace/workspace';
 import { cautionRead, ListenCaution, rememberCautionRead } from './listen-caution';
 import { useListen } from './listen-context';
@@ -30,6 +31,7 @@ export function PlaybackBar() {
   const [asking, setAsking] = useState<From | null>(null);
   const [rpmText, setRpmText] = useState('');
   const pinUsed = useRef<number | null>(null);
+  const [layout, setLayout] = useBenchLayout();
 
   /** Plays, after the caution the first time this user plays anything. */
   const start = (from: From) => {
@@ -75,63 +77,69 @@ export function PlaybackBar() {
   const processed = settings.processing !== 'off';
   const heardRun = settings.runId ?? runs.find((r) => r.baseline)?.id ?? '';
   return (
-    <section aria-label="Listen" data-testid="playback-bar" className="flex flex-col gap-2 rounded-lg border border-ink-800 bg-ink-900 px-4 py-2.5">
-      <div className="flex flex-wrap items-center gap-x-3 gap-y-2">
-        <button
-          type="button"
-          className={`${toolButtonClass(status.playing)} w-20`}
-          aria-label={status.playing ? 'Pause' : 'Play'}
-          title="Play or pause (space; over the map, from the pointer)"
-          onClick={() => toggle()}
-        >
-          <span aria-hidden>{status.playing ? '❚❚' : '▶'}</span> {status.playing ? 'Pause' : 'Play'}
+    <div role="group" aria-label="Listen" data-testid="playback-bar" className="flex min-w-0 flex-wrap items-center gap-x-2 gap-y-1.5">
+      <span className="h-5 w-px bg-ink-800" aria-hidden />
+      <button
+        type="button"
+        className={`${toolButtonClass(status.playing)} w-[4.5rem]`}
+        aria-label={status.playing ? 'Pause' : 'Play'}
+        title="Play or pause (space; over the map, from the pointer)"
+        onClick={() => toggle()}
+      >
+        <span aria-hidden>{status.playing ? '❚❚' : '▶'}</span> {status.playing ? 'Pause' : 'Play'}
+      </button>
+      <form
+        className="flex items-center gap-1"
+        onSubmit={(e) => {
+          e.preventDefault();
+          const rpm = Number(rpmText);
+          if (rpmText.trim() !== '' && rpm > 0) start({ rpm });
+        }}
+      >
+        <input aria-label="Play from rpm" title="Play from the first moment the run reaches this speed" inputMode="decimal" placeholder="from rpm" className={`${smallInputClass()} w-20`} value={rpmText} onChange={(e) => setRpmText(e.target.value)} />
+        <button type="submit" className={toolButtonClass()}>
+          Go
         </button>
-        <form
-          className="flex items-center gap-1.5 text-[11px] text-mist-500"
-          onSubmit={(e) => {
-            e.preventDefault();
-            const rpm = Number(rpmText);
-            if (rpmText.trim() !== '' && rpm > 0) start({ rpm });
-          }}
-        >
-          <label className="flex items-center gap-1.5">
-            Play from
-            <input aria-label="Play from rpm" inputMode="decimal" placeholder="rpm" className={`${smallInputClass()} w-20`} value={rpmText} onChange={(e) => setRpmText(e.target.value)} />
-          </label>
-          <button type="submit" className={toolButtonClass()}>
-            Go
-          </button>
-        </form>
-        <button
-          type="button"
-          className={toolButtonClass(settings.hearing === 'processed' && processed)}
-          aria-pressed={settings.hearing === 'processed' && processed}
-          disabled={!processed}
-          title="Switch between the processed sound and the original at the same moment (p)"
-          onClick={() => listen.toggleHearing()}
-        >
-          {settings.hearing === 'processed' && processed ? 'Hearing processed' : 'Hearing original'}
-        </button>
-        {runs.length > 1 && (
-          <label className="flex items-center gap-1.5 text-[11px] text-mist-500" title="Switch runs at the same speed (r)">
-            Run
-            <select aria-label="Run heard" className={`${smallSelectClass} max-w-56`} value={heardRun} onChange={(e) => listen.update({ runId: e.target.value })}>
-              {runs.map((r) => (
-                <option key={r.id} value={r.id}>
-                  {r.name}
-                </option>
-              ))}
-            </select>
-          </label>
-        )}
-        <PlayPosition />
-      </div>
-      <PlaybackOptions />
-      {status.message && <p className="text-[11px] text-danger">{status.message}</p>}
-      <p className="text-[11px] text-mist-500">
-        Mind the level on headphones: playback starts low and a limiter holds peaks, but the volume is yours to set. Keys: space play or pause, p processed or
-        original, r the other run at the same speed.
-      </p>
+      </form>
+      <button
+        type="button"
+        className={toolButtonClass(settings.hearing === 'processed' && processed)}
+        aria-pressed={settings.hearing === 'processed' && processed}
+        disabled={!processed}
+        title="Switch between the processed sound and the original at the same moment (p)"
+        onClick={() => listen.toggleHearing()}
+      >
+        {settings.hearing === 'processed' && processed ? 'Hearing processed' : 'Hearing original'}
+      </button>
+      {runs.length > 1 && (
+        <select aria-label="Run heard" title="Switch runs at the same speed (r)" className={`${smallSelectClass} max-w-48`} value={heardRun} onChange={(e) => listen.update({ runId: e.target.value })}>
+          {runs.map((r) => (
+            <option key={r.id} value={r.id}>
+              {r.name}
+            </option>
+          ))}
+        </select>
+      )}
+      <button
+        type="button"
+        className={toolButtonClass(layout.listenOptions)}
+        aria-expanded={layout.listenOptions}
+        aria-controls="listen-options"
+        onClick={() => setLayout({ listenOptions: !layout.listenOptions })}
+      >
+        Listening options
+      </button>
+      <PlayPosition />
+      {layout.listenOptions && (
+        <div id="listen-options" className="flex basis-full flex-col gap-1.5 border-t border-ink-800 pt-1.5">
+          <PlaybackOptions />
+          <p className="text-[11px] text-mist-500">
+            Mind the level on headphones: playback starts low and a limiter holds peaks, but the volume is yours to set. Keys: space play or pause, p
+            processed or original, r the other run at the same speed.
+          </p>
+        </div>
+      )}
+      {status.message && <p className="basis-full text-[11px] text-danger">{status.message}</p>}
       {asking && (
         <ListenCaution
           onCancel={() => setAsking(null)}
@@ -143,7 +151,7 @@ export function PlaybackBar() {
           }}
         />
       )}
-    </section>
+    </div>
   );
 }
 
@@ -155,7 +163,7 @@ function PlayPosition() {
   const heard = status.heard;
   return (
     <p
-      className="ml-auto font-mono text-[11px] text-mist-300"
+      className="font-mono text-[11px] text-mist-300"
       data-testid="play-position"
       data-audio-state={status.audio}
       data-playing={status.playing ? 'yes' : 'no'}

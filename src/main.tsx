@@ -8,6 +8,9 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { AppProvider } from './app/provider';
 import { AppRouter } from './app/router';
+import { installTheme } from './lib/theme-preference';
+
+installTheme();
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>

@@ -7,7 +7,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { demoRecordings } from '../../seeds/demo-recordings';
-import { launchBrowser, screenshot, signedInPage } from './browser';
+import { canvasPixels, launchBrowser, screenshot, signedInPage } from './browser';
 
 const W = 1600;
 const H = 1000;
@@ -43,6 +43,17 @@ describe('the Bench layout (browser)', () => {
       expect(box.x + box.width).toBeLessThanOrEqual(W);
     }
     await screenshot(page, 'bench-layout-dark');
+    // the light theme beside the dark one: surfaces change, the map keeps its colour scale
+    const mapBefore = await canvasPixels(page, 'map-canvas');
+    await page.getByRole('button', { name: 'Light theme' }).click();
+    expect(await page.evaluate(() => document.documentElement.dataset.theme)).toBe('light');
+    const background = await page.evaluate(() => getComputedStyle(document.body).backgroundColor);
+    expect(background).not.toBe('rgb(13, 17, 23)');
+    expect((await canvasPixels(page, 'map-canvas')).colours).toBeGreaterThan(mapBefore.colours * 0.8);
+    await page.waitForTimeout(400); // the buttons' colour transitions end
+    await screenshot(page, 'bench-layout-light');
+    await page.getByRole('button', { name: 'Light theme' }).click();
+    expect(await page.evaluate(() => document.documentElement.dataset.theme)).toBe('dark');
 
     // a side section opens beside the rail and folds again; the right column widens by its edge
     await page.getByRole('button', { name: 'Channels and speed' }).click();

@@ -1,4 +1,6 @@
+import { useEffect, useState } from 'react';
 import { Link, Outlet, useNavigate } from 'react-router-dom';
+import { applyTheme, chooseTheme, themeOf } from '../../lib/theme-preference';
 import { useMe, useSignOut } from '../../features/auth/api/auth';
 import { paths } from '../../config/paths';
 import { Logo } from '../ui/logo';
@@ -7,6 +9,18 @@ export function AppShell() {
   const { data: me } = useMe();
   const signOut = useSignOut();
   const navigate = useNavigate();
+  const userId = me?.id ?? null;
+  const [theme, setTheme] = useState(() => themeOf(userId));
+  useEffect(() => {
+    const t = themeOf(userId);
+    setTheme(t);
+    applyTheme(t);
+  }, [userId]);
+  const toggleTheme = () => {
+    const next = theme === 'dark' ? 'light' : 'dark';
+    chooseTheme(userId, next);
+    setTheme(next);
+  };
   return (
     <div className="flex min-h-screen flex-col">
       <header className="flex h-12 shrink-0 items-center gap-6 border-b border-ink-800 bg-ink-900 px-5">
@@ -28,6 +42,15 @@ export function AppShell() {
           )}
         </nav>
         <div className="ml-auto flex items-center gap-3 text-sm">
+          <button
+            type="button"
+            className="rounded-md px-2 py-1 text-mist-300 hover:bg-ink-800 hover:text-mist-100"
+            aria-pressed={theme === 'light'}
+            title="Light or dark surfaces (remembered for you in this browser); the maps keep their colour scales"
+            onClick={toggleTheme}
+          >
+            Light theme
+          </button>
           <Link to={paths.settings} className="rounded-md px-2 py-1 text-mist-300 hover:bg-ink-800 hover:text-mist-100">
             Settings
           </Link>

@@ -1,16 +1,32 @@
-import { useEffect, useLayoutEffect, useRef } from 'react';
+import { useEffect, useLayoutEffect, useRef, useSyncExternalStore } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
-import { palette, seriesColours } from '../../../config/theme';
+import { seriesColours, themeColour } from '../../../config/theme';
+
+/** The theme shown (a chart is made again when it changes: canvases do not follow CSS). */
+const subscribeTheme = (onChange: () => void) => {
+  const observer = new MutationObserver(onChange);
+  observer.observe(document.documentElement, { attributes: true, attributeFilter: ['data-theme'] });
+  return () => observer.disconnect();
+};
+const currentTheme = () => document.documentElement.dataset.theme ?? 'dark';
+
+/** Axis colours in the theme shown now. */
+const themedAxis = (a: uPlot.Axis): uPlot.Axis => ({
+  ...a,
+  stroke: themeColour((p) => p.mist[300]),
+  grid: { ...a.grid, stroke: themeColour((p) => p.ink[800]) },
+  ticks: { ...a.ticks, stroke: themeColour((p) => p.ink[600]) },
+});
 
 export const plotAxis = (label: string, extra: Partial<uPlot.Axis> = {}): uPlot.Axis => ({
   label,
-  stroke: palette.mist[300],
+  stroke: themeColour((p) => p.mist[300]),
   font: '11px "JetBrains Mono", ui-monospace, monospace',
   labelFont: '12px Inter, system-ui, sans-serif',
   labelSize: 20,
-  grid: { stroke: 'rgba(255,255,255,0.06)', width: 1 },
-  ticks: { stroke: palette.ink[600], width: 1, size: 4 },
+  grid: { stroke: themeColour((p) => p.ink[800]), width: 1 },
+  ticks: { stroke: themeColour((p) => p.ink[600]), width: 1, size: 4 },
   ...extra,
 });
 
@@ -40,12 +56,13 @@ export function UPlotChart({
   dataRef.current = data;
   const onChartRef = useRef(onChart);
   onChartRef.current = onChart;
+  const theme = useSyncExternalStore(subscribeTheme, currentTheme, () => 'dark');
 
   useLayoutEffect(() => {
     const box = boxRef.current;
     if (!box) return;
     const size = () => ({ width: Math.max(120, box.clientWidth), height: Math.max(80, box.clientHeight) });
-    const u = new uPlot({ ...options, legend: { show: false }, ...size() }, dataRef.current, box);
+    const u = new uPlot({ ...options, axes: options.axes?.map(themedAxis), legend: { show: false }, ...size() }, dataRef.current, box);
     plotRef.current = u;
     onChartRef.current?.(u);
     const observer = new ResizeObserver(() => u.setSize(size()));
@@ -56,7 +73,7 @@ export function UPlotChart({
       plotRef.current = null;
       u.destroy();
     };
-  }, [options]);
+  }, [options, theme]);
 
   useEffect(() => {
     plotRef.current?.setData(data);

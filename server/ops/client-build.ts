@@ -22,8 +22,11 @@ export async function buildClientIfStale(outDir: string): Promise<'built' | 'fre
   const { build } = await import('vite');
   // Vite's build sets NODE_ENV=production for the process; the server that starts next must not inherit it.
   const nodeEnv = process.env.NODE_ENV;
+  // Always a production bundle: Vite takes NODE_ENV from the process when it is set, and `npm test` runs
+  // with NODE_ENV=test, which gave the test client React's development build (several times slower).
+  process.env.NODE_ENV = 'production';
   try {
-    await build({ configFile: path.join(PROJECT_ROOT, 'vite.config.ts'), logLevel: 'warn', build: { outDir } });
+    await build({ configFile: path.join(PROJECT_ROOT, 'vite.config.ts'), mode: 'production', logLevel: 'warn', build: { outDir } });
   } finally {
     if (nodeEnv === undefined) delete process.env.NODE_ENV;
     else process.env.NODE_ENV = nodeEnv;

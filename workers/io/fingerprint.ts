@@ -10,12 +10,10 @@ const SAMPLE_BYTES = 4096;
 const SAMPLES = 8;
 
 export async function fingerprint(source: ByteSource): Promise<string> {
-  const parts: Uint8Array[] = [new TextEncoder().encode(`fanlight-v1:${source.size}:`)];
-  parts.push(await source.read(0, HEAD_BYTES));
-  for (let i = 1; i <= SAMPLES; i++) {
-    const offset = Math.floor((source.size * i) / (SAMPLES + 1));
-    parts.push(await source.read(offset, SAMPLE_BYTES));
-  }
+  // the reads go out together: in a browser each one is a round trip to the browser process
+  const reads = [source.read(0, HEAD_BYTES)];
+  for (let i = 1; i <= SAMPLES; i++) reads.push(source.read(Math.floor((source.size * i) / (SAMPLES + 1)), SAMPLE_BYTES));
+  const parts: Uint8Array[] = [new TextEncoder().encode(`fanlight-v1:${source.size}:`), ...(await Promise.all(reads))];
   const total = parts.reduce((n, p) => n + p.byteLength, 0);
   const all = new Uint8Array(total);
   let at = 0;

@@ -122,7 +122,8 @@ describe('WAV reader: sample formats', () => {
   });
 
   it('reports progress up to 1 and stops when cancelled', async () => {
-    const bytes = wav(testChannels(2, 2_000_000), { bits: 16 });
+    // 12 MB of samples: more than one read block (8 MiB), so there is a moment to stop between them
+    const bytes = wav(testChannels(2, 3_000_000), { bits: 16 });
     const seen: number[] = [];
     await decodeRecording(memorySource(bytes, 'p.wav'), { onProgress: (f) => seen.push(f) });
     expect(seen.at(-1)).toBe(1);

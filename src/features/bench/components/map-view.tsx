@@ -35,6 +35,8 @@ interface Props extends GestureProps {
 }
 
 let redraws = 0;
+/** While a map fills, its newly arrived columns are painted at most this often, ms. */
+const CHUNK_PAINT_MS = 150;
 
 /**
  * The map's three layers: the painted levels (paint-levels.ts), the guides with their labels and the
@@ -137,12 +139,26 @@ export function MapView(props: Props) {
     const image = new MapImage(raster, p.lut, p.topDb, p.rangeDb);
     imageRef.current = image;
     scheduler.request({ map: true, guides: true });
-    // Chunks arriving within one frame are painted together, in that frame.
+    // Chunks arriving together are painted together: at most every CHUNK_PAINT_MS while the map fills
+    // (each repaint of a large canvas costs the page tens of ms, and the pool waits for the page to hand
+    // it the next chunk), and at once when the last one is in.
+    let lastPaint = -Infinity;
+    let timer: ReturnType<typeof setTimeout> | null = null;
+    const paintNow = () => {
+      timer = null;
+      lastPaint = performance.now();
+      scheduler.request({ map: true });
+    };
     const off = raster.subscribe((c0, c1) => {
       pending.current = pending.current ? [Math.min(pending.current[0], c0), Math.max(pending.current[1], c1)] : [c0, c1];
-      scheduler.request({ map: true });
+      const wait = CHUNK_PAINT_MS - (performance.now() - lastPaint);
+      if (raster.columnsDone >= raster.columns || wait <= 0) {
+        if (timer) clearTimeout(timer);
+        paintNow();
+      } else timer ??= setTimeout(paintNow, wait);
     });
     return () => {
+      if (timer) clearTimeout(timer);
       off();
       pending.current = null;
       if (imageRef.current === image) imageRef.current = null;

@@ -95,9 +95,11 @@ export function useRecordingReader(onOpened?: (entry: LibraryEntry) => void) {
       return;
     }
     if (current.current !== job) return;
+    performance.mark('fanlight:decoded');
     try {
       const entry = await addRef.current({ entry: entryFrom(decoded, fileName, csv, setup), file });
       if (current.current !== job) return;
+      performance.mark('fanlight:stored');
       setOpen({ entry, decoded });
       openedRef.current?.(entry);
     } catch (e) {

@@ -73,12 +73,16 @@ export function useMapComputation(req: MapRequest) {
     let store: MapPower | null = null;
     fraction.current = 0;
     let shownAt = -Infinity;
+    let first = true;
+    performance.mark('fanlight:map-start');
     try {
       current = startMap(
         samples,
         fsHz,
         { blockSize, overlap, window },
         (from, to, chunk) => {
+          if (first) performance.mark('fanlight:map-first-chunk');
+          first = false;
           if (store) {
             store.power.set(chunk, from * store.layout.bins);
             store.frames = to;
@@ -115,7 +119,10 @@ export function useMapComputation(req: MapRequest) {
     setPeakTopDb(null);
     setStatus({ kind: 'computing', fraction: 0 });
     current.done.then(
-      () => job.current === current && setStatus({ kind: 'done', engine: [...current.engines].join(' ') }),
+      () => {
+        performance.mark('fanlight:map-computed');
+        if (job.current === current) setStatus({ kind: 'done', engine: [...current.engines].join(' ') });
+      },
       (e: unknown) => {
         if (job.current !== current) return;
         if (e instanceof Error && e.name === 'AbortError') setStatus({ kind: 'cancelled', fraction: fraction.current });

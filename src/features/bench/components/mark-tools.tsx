@@ -18,26 +18,26 @@ export function MarkTools() {
   if (mode !== 'mark' && marks.length === 0 && savedMarks.marks.length === 0) return null;
   return (
     <BenchPanel title="Marks">
-    <div className="flex flex-col gap-3" data-testid="mark-tools">
-      {fromView && <SavedMarks fromView={fromView} marks={savedMarks} against={fromView.restore.against ?? against} />}
-      <div className="flex flex-wrap items-end gap-3">
-        <TextField
-          label="Mark text"
-          className="min-w-56 flex-1"
-          maxLength={MARK_TEXT_MAX}
-          value={markText}
-          onChange={(e) => a.setMarkText(e.target.value)}
-          placeholder="The text of the next mark you place"
-        />
-        <p className="pb-2 text-xs text-mist-500">
-          {mode === 'mark' ? 'Click the map for a point, Shift-drag for a box, or mark a whole guide.' : 'Choose Add mark (m) to place more.'} Marks are saved with the view.
-        </p>
-        <div className="pb-1">
-          <GuideMarkPicker guides={markableGuides(lines)} onMark={(g) => a.addMark({ kind: 'guide', guide: g.guide, label: g.label })} />
+      <div className="flex flex-col gap-3" data-testid="mark-tools">
+        {fromView && <SavedMarks fromView={fromView} marks={savedMarks} against={fromView.restore.against ?? against} />}
+        <div className="flex flex-wrap items-end gap-3">
+          <TextField
+            label="Mark text"
+            className="min-w-56 flex-1"
+            maxLength={MARK_TEXT_MAX}
+            value={markText}
+            onChange={(e) => a.setMarkText(e.target.value)}
+            placeholder="The text of the next mark you place"
+          />
+          <p className="pb-2 text-xs text-mist-500">
+            {mode === 'mark' ? 'Click the map for a point, Shift-drag for a box, or mark a whole guide.' : 'Choose Add mark (m) to place more.'} Marks are saved with the view.
+          </p>
+          <div className="pb-1">
+            <GuideMarkPicker guides={markableGuides(lines)} onMark={(g) => a.addMark({ kind: 'guide', guide: g.guide, label: g.label })} />
+          </div>
         </div>
+        <PendingMarks marks={marks} firstNumber={firstPending} against={against} onChange={a.setMarks} />
       </div>
-      <PendingMarks marks={marks} firstNumber={firstPending} against={against} onChange={a.setMarks} />
-    </div>
     </BenchPanel>
   );
 }

@@ -1,4 +1,5 @@
-import { useEffect, useId, useRef } from 'react';
+import { useEffect, useRef } from 'react';
+import { ModalDialog } from '../../../components/ui/modal-dialog';
 
 export const SHORTCUTS: [string, string][] = [
   ['+  /  −', 'Zoom in / out'],
@@ -70,42 +71,29 @@ export function useShortcuts(actions: ShortcutActions) {
 }
 
 export function ShortcutsDialog({ onClose }: { onClose: () => void }) {
-  const id = useId();
   const closeRef = useRef<HTMLButtonElement>(null);
-  useEffect(() => {
-    const before = document.activeElement as HTMLElement | null;
-    closeRef.current?.focus();
-    return () => before?.focus?.();
-  }, []);
   return (
-    <div className="fixed inset-0 z-50 flex items-center justify-center bg-ink-950/70 p-4" onClick={onClose}>
-      <div
-        role="dialog"
-        aria-modal="true"
-        aria-labelledby={id}
-        className="w-full max-w-md rounded-lg border border-ink-700 bg-ink-900 p-5 shadow-2xl"
-        onClick={(e) => e.stopPropagation()}
-      >
-        <div className="mb-3 flex items-center">
-          <h2 id={id} className="text-base font-medium">
-            Keyboard shortcuts
-          </h2>
-          <button ref={closeRef} type="button" className="ml-auto rounded-md px-2 py-1 text-sm text-mist-300 hover:bg-ink-800" onClick={onClose}>
-            Close
-          </button>
-        </div>
-        <dl className="grid grid-cols-[8rem_1fr] gap-x-4 gap-y-2 text-sm">
-          {SHORTCUTS.map(([k, what]) => (
-            <div key={k} className="contents">
-              <dt>
-                <kbd className="rounded border border-ink-600 bg-ink-850 px-1.5 py-0.5 font-mono text-xs text-mist-100">{k}</kbd>
-              </dt>
-              <dd className="text-mist-300">{what}</dd>
-            </div>
-          ))}
-        </dl>
-        <p className="mt-4 text-xs text-mist-500">Keys do nothing while you type in a field.</p>
-      </div>
-    </div>
+    <ModalDialog
+      title="Keyboard shortcuts"
+      onClose={onClose}
+      initialFocus={closeRef}
+      heading={
+        <button ref={closeRef} type="button" className="ml-auto rounded-md px-2 py-1 text-sm text-mist-300 hover:bg-ink-800" onClick={onClose}>
+          Close
+        </button>
+      }
+    >
+      <dl className="grid grid-cols-[8rem_1fr] gap-x-4 gap-y-2 text-sm">
+        {SHORTCUTS.map(([k, what]) => (
+          <div key={k} className="contents">
+            <dt>
+              <kbd className="rounded border border-ink-600 bg-ink-850 px-1.5 py-0.5 font-mono text-xs text-mist-100">{k}</kbd>
+            </dt>
+            <dd className="text-mist-300">{what}</dd>
+          </div>
+        ))}
+      </dl>
+      <p className="mt-4 text-xs text-mist-500">Keys do nothing while you type in a field.</p>
+    </ModalDialog>
   );
 }

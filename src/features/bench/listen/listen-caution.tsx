@@ -1,4 +1,5 @@
-import { useEffect, useId, useRef } from 'react';
+import { useRef } from 'react';
+import { ModalDialog } from '../../../components/ui/modal-dialog';
 
 const key = (userId: number | string) => `fanlight.listen-caution.v1.${userId}`;
 
@@ -23,47 +24,29 @@ export function rememberCautionRead(userId: number | string | null): void {
 
 /** The first time a user plays sound: headphones, level, and whose rules apply. */
 export function ListenCaution({ onAccept, onCancel }: { onAccept: () => void; onCancel: () => void }) {
-  const id = useId();
   const acceptRef = useRef<HTMLButtonElement>(null);
-  useEffect(() => {
-    const before = document.activeElement as HTMLElement | null;
-    acceptRef.current?.focus();
-    return () => before?.focus?.();
-  }, []);
   return (
-    <div className="fixed inset-0 z-50 flex items-center justify-center bg-ink-950/70 p-4" onClick={onCancel}>
-      <div
-        role="dialog"
-        aria-modal="true"
-        aria-labelledby={id}
-        className="w-full max-w-lg rounded-lg border border-accent/60 bg-ink-900 p-5 shadow-2xl"
-        onClick={(e) => e.stopPropagation()}
-        onKeyDown={(e) => e.key === 'Escape' && onCancel()}
-      >
-        <h2 id={id} className="mb-3 text-base font-medium text-mist-100">
-          Before you listen: protect your hearing
-        </h2>
-        <ul className="mb-4 flex list-disc flex-col gap-1.5 pl-5 text-sm text-mist-300">
-          <li>Turn your headphone or speaker volume down before the first play, then raise it slowly.</li>
-          <li>
-            Playback starts at a low gain and a limiter holds peaks below −1 dB of full scale, but how loud full scale sounds
-            depends on your headphones and volume setting, which this page cannot know.
-          </li>
-          <li>Recordings of drives can hold sudden loud transients and high, piercing carrier tones that are hard to judge by ear.</li>
-          <li>
-            As a guide, keep listening within about 80 dB(A) for 40 hours a week (WHO–ITU H.870). Your site&apos;s hearing-protection
-            rules and local regulations come first.
-          </li>
-        </ul>
-        <div className="flex justify-end gap-2">
-          <button type="button" className="rounded-md px-3 py-1.5 text-sm text-mist-300 hover:bg-ink-800" onClick={onCancel}>
-            Cancel
-          </button>
-          <button ref={acceptRef} type="button" className="rounded-md bg-accent px-3 py-1.5 text-sm font-medium text-ink-950 hover:bg-accent-strong" onClick={onAccept}>
-            I understand, play
-          </button>
-        </div>
+    <ModalDialog title="Before you listen: protect your hearing" onClose={onCancel} initialFocus={acceptRef} className="max-w-lg border-accent/60">
+      <ul className="mb-4 flex list-disc flex-col gap-1.5 pl-5 text-sm text-mist-300">
+        <li>Turn your headphone or speaker volume down before the first play, then raise it slowly.</li>
+        <li>
+          Playback starts at a low gain and a limiter holds peaks below −1 dB of full scale, but how loud full scale sounds depends on your
+          headphones and volume setting, which this page cannot know.
+        </li>
+        <li>Recordings of drives can hold sudden loud transients and high, piercing carrier tones that are hard to judge by ear.</li>
+        <li>
+          As a guide, keep listening within about 80 dB(A) for 40 hours a week (WHO–ITU H.870). Your site&apos;s hearing-protection rules and
+          local regulations come first.
+        </li>
+      </ul>
+      <div className="flex justify-end gap-2">
+        <button type="button" className="rounded-md px-3 py-1.5 text-sm text-mist-300 hover:bg-ink-800" onClick={onCancel}>
+          Cancel
+        </button>
+        <button ref={acceptRef} type="button" className="rounded-md bg-accent px-3 py-1.5 text-sm font-medium text-ink-950 hover:bg-accent-strong" onClick={onAccept}>
+          I understand, play
+        </button>
       </div>
-    </div>
+    </ModalDialog>
   );
 }

@@ -23,6 +23,11 @@ export type RecordingErrorCode =
   | 'CSV_NEEDS_SAMPLE_RATE'
   | 'CSV_BAD_OPTION'
   | 'UNKNOWN_FORMAT'
+  | 'NO_SAMPLE_RATE'
+  | 'UNEQUAL_LENGTHS'
+  | 'NOT_NUMERIC'
+  | 'TRUNCATED_FILE'
+  | 'BAD_STRUCTURE'
   | 'BAD_CHANNEL'
   | 'READ_FAILED'
   | 'CANCELLED';

@@ -1,10 +1,10 @@
 /** What a decoded recording is, in the units the rest of the engine uses. */
 
-export type RecordingFormat = 'wav' | 'csv';
+export type RecordingFormat = 'wav' | 'csv' | 'mat' | 'hdf5' | 'uff';
 
 export interface ChannelInfo {
   index: number;
-  /** From the file where it has one (CSV header, WAV list chunk), else ch1, ch2, … */
+  /** From the file where it has one (CSV header, WAV list chunk, MAT/HDF5 variable, UFF ID line), else ch1, ch2, … */
   name: string;
   /** From the file where it carries one (CSV header cell "mic [Pa]"), else null. */
   unit: string | null;

@@ -2,7 +2,7 @@ import { useDropzone, type FileRejection } from 'react-dropzone';
 import { Button } from '../../../components/ui/button';
 import type { Reading } from '../hooks/use-recording-reader';
 
-const EXTENSIONS = ['.wav', '.csv', '.tsv', '.txt'];
+const EXTENSIONS = ['.wav', '.csv', '.tsv', '.txt', '.mat', '.h5', '.hdf5', '.uff', '.unv'];
 
 // For the file picker's filter; the extension check below is what decides.
 const accept = {
@@ -10,6 +10,7 @@ const accept = {
   'text/csv': ['.csv'],
   'text/tab-separated-values': ['.tsv'],
   'text/plain': ['.txt'],
+  'application/octet-stream': ['.mat', '.h5', '.hdf5', '.uff', '.unv'],
 };
 
 const hasKnownExtension = (name: string) => EXTENSIONS.some((ext) => name.toLowerCase().endsWith(ext));
@@ -18,7 +19,7 @@ function rejectionMessage(rejections: FileRejection[]): string {
   if (rejections.length > 1 || rejections.some((r) => r.errors.some((e) => e.code === 'too-many-files'))) {
     return 'Drop one file at a time.';
   }
-  return `Fanlight reads .wav, .csv, .tsv and .txt files; ${rejections[0].file.name} is none of these.`;
+  return `Fanlight reads .wav, .csv, .tsv, .txt, .mat, .h5, .hdf5, .uff and .unv files; ${rejections[0].file.name} is none of these.`;
 }
 
 interface DropZoneProps {

@@ -10,7 +10,8 @@
  *   with a carrier step, or spread (a triangle sweep).
  * Carriers 2–20 kHz, sample rates 25.6–204.8 kHz, speeds from 300 rpm, pole pairs 2–8. The cases are
  * drawn from these ranges by a fixed generator, so every run sweeps the same ones.
- * `node --import tsx tests/support/findings-sweep.ts` prints the hit rates (the README quotes them).
+ * `node --import tsx tests/support/findings-sweep.ts` prints the hit rates (the README quotes them);
+ * `… findings-sweep.ts electrical` those of the steady voltage and current cases (electricalCases).
  */
 import { synthesiseDrive } from '../../seeds/synthetic-drive';
 import { simulateTwoLevelPwm } from '../../workers/dsp/pwm-simulation';
@@ -28,6 +29,8 @@ export interface SweepCase {
   rpmTo: number;
   polePairs: number;
   spreadWidthHz?: number;
+  /** for the voltage and current kinds; default 0.85 */
+  modulationIndex?: number;
 }
 
 export interface SweepOutcome {
@@ -83,6 +86,31 @@ export function sweepCases(count = 30, seed = 2026): SweepCase[] {
   return out;
 }
 
+/**
+ * Voltage and current at one steady speed only, the family where the sideband offsets alone fit every
+ * divisor of the pole pairs: pole pairs 1–8, speeds 300–6000 rpm, modulation index 0.6–1.0, the same
+ * carriers and rates, the pulse ratio fc/fe at 12 or more. The first case is the three-phase two-level
+ * naturally sampled sine-triangle line-to-line voltage with a 4 kHz carrier, fe 60 Hz, M = 0.9, sampled at
+ * 102.4 kHz, 1800 rpm, 2 pole pairs.
+ */
+export function electricalCases(count = 24, seed = 1205): SweepCase[] {
+  const rnd = lcg(seed);
+  const pick = <T>(xs: readonly T[]) => xs[Math.floor(rnd() * xs.length)];
+  const kinds: SweepKind[] = ['voltage sine-triangle', 'voltage space-vector', 'current sine-triangle'];
+  const out: SweepCase[] = [{ kind: 'voltage sine-triangle', fsHz: 102400, carrierHz: 4000, rpmFrom: 1800, rpmTo: 1800, polePairs: 2, modulationIndex: 0.9 }];
+  for (let i = 0; out.length < count && i < count * 50; i++) {
+    const kind = kinds[out.length % kinds.length];
+    const fsHz = pick(RATES);
+    const carrierHz = pick(CARRIERS);
+    const polePairs = 1 + Math.floor(rnd() * 8);
+    const rpm = 300 + Math.round(rnd() * 57) * 100;
+    const modulationIndex = Math.round((0.6 + rnd() * 0.4) * 100) / 100;
+    if (carrierHz > 0.4 * fsHz || rpm > (carrierHz / 12 / polePairs) * 60) continue;
+    out.push({ kind, fsHz, carrierHz, rpmFrom: rpm, rpmTo: rpm, polePairs, modulationIndex });
+  }
+  return out;
+}
+
 /** First-order low-pass y' = (x − y)·2πfc (an R-L load's current for a voltage), by the bilinear transform. */
 function rlCurrent(v: Float32Array, fsHz: number, cornerHz: number): Float32Array {
   const k = Math.tan((Math.PI * cornerHz) / fsHz);
@@ -108,7 +136,7 @@ function signalOf(c: SweepCase): { x: Float32Array; durationS: number; rpm: (t: 
       durationS,
       carrierHz: c.carrierHz,
       fundamentalHz: fe,
-      modulationIndex: 0.85,
+      modulationIndex: c.modulationIndex ?? 0.85,
       vdc: 400,
       oversample: 4,
       modulation: c.kind.endsWith('space-vector') ? 'space-vector' : 'sine-triangle',
@@ -194,12 +222,13 @@ export function hitRates(outcomes: SweepOutcome[]): HitRates {
 }
 
 export function describeCase(c: SweepCase): string {
-  return `${c.kind}, fc ${c.carrierHz}${c.stepToHz ? `→${c.stepToHz}` : ''} Hz, fs ${c.fsHz} Hz, ${c.rpmFrom.toFixed(0)}${c.rpmTo !== c.rpmFrom ? `→${c.rpmTo.toFixed(0)}` : ''} rpm, p ${c.polePairs}${c.spreadWidthHz ? `, spread ${c.spreadWidthHz} Hz` : ''}`;
+  return `${c.kind}${c.modulationIndex ? ` M ${c.modulationIndex}` : ''}, fc ${c.carrierHz}${c.stepToHz ? `→${c.stepToHz}` : ''} Hz, fs ${c.fsHz} Hz, ${c.rpmFrom.toFixed(0)}${c.rpmTo !== c.rpmFrom ? `→${c.rpmTo.toFixed(0)}` : ''} rpm, p ${c.polePairs}${c.spreadWidthHz ? `, spread ${c.spreadWidthHz} Hz` : ''}`;
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   const outcomes: SweepOutcome[] = [];
-  for (const c of sweepCases(Number(process.argv[2] ?? 30))) {
+  const cases = process.argv[2] === 'electrical' ? electricalCases(Number(process.argv[3] ?? 24)) : sweepCases(Number(process.argv[2] ?? 30));
+  for (const c of cases) {
     const o = await runSweepCase(c);
     outcomes.push(o);
     const marks = [o.carrier, o.shifts, o.spread, o.polePairs].map((v) => (v === null ? '-' : v ? 'ok' : 'MISS')).join(' ');

@@ -5,7 +5,8 @@
  */
 import { carrierShifts, detectCarrier, runSpreadHz } from './carrier';
 import { carrierTonality, TONE_FAMILIES, type ToneFinding } from './carrier-tonality';
-import { allowedN, inferPolePairs, observeSidebandOffsets, type FamilyPattern } from './pole-pairs';
+import { polePairsFromFundamental } from './electrical-fundamental';
+import { allowedN, inferPolePairs, observeSidebandOffsets, withFundamental, type FamilyPattern } from './pole-pairs';
 import { frameTimeS, type StftLayout } from './stft';
 import { resolveCrossings } from './crossing-tracks';
 import { trackAgainstSpeed, trackGuide, type Guide } from './tracks';
@@ -92,7 +93,13 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   let pole: InverterReport['polePairs'];
   if (input.polePairs) pole = { value: input.polePairs, source: 'given', pattern: null, ambiguous: false, settledByChannel: false };
   else {
-    const est = inferPolePairs(observeSidebandOffsets(power, layout, carrier.hz, frameRpm), 12, input.expectedPattern ?? null);
+    const fromSidebands = inferPolePairs(observeSidebandOffsets(power, layout, carrier.hz, frameRpm), 12, input.expectedPattern ?? null);
+    // on a voltage or current channel the fundamental fe is a line of its own, and fe/fr tells the
+    // divisors of p apart where the sideband offsets cannot (electrical-fundamental.ts)
+    const fundamental = input.expectedPattern === 'm+n odd' ? polePairsFromFundamental(power, layout, carrier.hz, frameRpm, 12) : null;
+    const rpms = Array.from(frameRpm).filter((r) => r > 0).sort((a, b) => a - b);
+    const frHz = (rpms[rpms.length >> 1] ?? NaN) / 60;
+    const est = withFundamental(fromSidebands, fundamental?.polePairs ?? null, Math.max(0.35, layout.binHz / (2 * frHz)));
     pole = { value: est.value, source: 'inferred', pattern: est.pattern, ambiguous: est.ambiguous, settledByChannel: est.settledByChannel };
   }
   // With the pole pairs given, the pattern still comes from the offsets when they show one

@@ -137,3 +137,47 @@ export function inferPolePairs(
   }
   return { value: best.p, pattern: best.pattern, ambiguous, settledByChannel: false, observed };
 }
+
+const MAX_N = 8;
+
+/** The offset o (shaft orders) at m·fc is a sideband n·p of the pattern, for a whole n ≥ 1 */
+const explains = (o: { m: number; orders: number }, p: number, pattern: FamilyPattern, tolerance: number) => {
+  const n = Math.round(o.orders / p);
+  return n >= 1 && Math.abs(o.orders - n * p) <= tolerance && allowedN(o.m, n, pattern);
+};
+
+/**
+ * The pole pairs an electrical channel's fundamental gives (electrical-fundamental.ts: fe/fr), held
+ * against the sidebands. The fundamental breaks the tie the sidebands cannot: at one speed every divisor
+ * of p explains the offsets n·p·fr, and the many weak offsets at whole orders then favour p = 1. It is
+ * taken when the sidebands do not contradict it: in each group m that shows sidebands, the strongest
+ * offset up to 8p must be a sideband n·p of the inverter pattern (m + n odd; Holmes & Lipo 2003, ch. 3),
+ * and the offsets it explains must be as strong on average (mean square) as those it leaves. Not a share
+ * of the total: where the spectrum is a dense comb (folded groups at a low sampling rate) the pair search
+ * finds an offset at nearly every order, and a share would reject the right p for the noise it cannot
+ * explain. A line at 2fe or 3fe mistaken for the fundamental fails this (its p puts the strongest
+ * sideband pair, fc ± 2fe, at n = 1 or a fraction). Without resolved sidebands the fundamental answers
+ * alone and the pattern stays unknown.
+ * `orderTolerance`: how far an offset may sit from n·p, in orders; at least 0.35, and half a bin in
+ * orders (binHz / 2fr) where the bins are coarse, since an offset is read from whole bins either side.
+ */
+export function withFundamental(est: PolePairEstimate, fundamentalPolePairs: number | null, orderTolerance = 0.35): PolePairEstimate {
+  if (fundamentalPolePairs === null) return est;
+  const p = fundamentalPolePairs;
+  // the sidebands of the families themselves: |n| ≤ 8 (the Bessel terms J_n(m·M·π/2) of the series are
+  // small beyond that in the linear range; common practice). Offsets further out are pairs the search
+  // made of lines of other groups and the baseband.
+  const observed = est.observed.filter((o) => o.orders <= MAX_N * p + orderTolerance);
+  if (observed.length === 0) return { value: p, pattern: null, ambiguous: false, settledByChannel: false, observed: est.observed };
+  for (const m of [1, 2]) {
+    const group = observed.filter((o) => o.m === m);
+    if (!group.length) continue;
+    const strongest = group.reduce((a, b) => (b.strength > a.strength ? b : a));
+    if (!explains(strongest, p, 'm+n odd', orderTolerance)) return est;
+  }
+  const yes = observed.filter((o) => explains(o, p, 'm+n odd', orderTolerance));
+  const no = observed.filter((o) => !explains(o, p, 'm+n odd', orderTolerance));
+  const meanSquare = (xs: { strength: number }[]) => xs.reduce((s, o) => s + o.strength * o.strength, 0) / Math.max(1, xs.length);
+  if (meanSquare(yes) < meanSquare(no)) return est;
+  return { value: p, pattern: 'm+n odd', ambiguous: false, settledByChannel: false, observed: est.observed };
+}

@@ -6,6 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { synthesiseDrive, type FamilyComponent } from '../../../seeds/synthetic-drive';
+import { simulateTwoLevelPwm } from '../../../workers/dsp/pwm-simulation';
 import { analyseSignal, type AnalysisExtras } from '../../support/analyse-signal';
 
 const FS = 51200;
@@ -158,6 +159,37 @@ describe('a run-up measured on the phase current (m + n odd)', async () => {
   it('uses given pole pairs as given', async () => {
     const given = await analyse(x, rpm, { polePairs: 3 });
     expect(given.report.polePairs).toMatchObject({ value: 3, source: 'given', pattern: 'm+n odd' });
+  });
+
+  it('on a channel declared electrical, does not take the order-6 line (2fe) for the fundamental: the sidebands contradict p = 6', async () => {
+    const declared = await analyse(x, rpm, { expectedPattern: 'm+n odd' });
+    expect(declared.report.polePairs).toMatchObject({ value: 3, pattern: 'm+n odd', ambiguous: false });
+  });
+});
+
+describe('a line-to-line voltage at one steady speed: the fundamental tells p from its divisors', async () => {
+  // Three-phase two-level naturally sampled sine-triangle PWM (Holmes & Lipo 2003, ch. 3): carrier 4 kHz,
+  // fundamental 60 Hz, modulation index 0.9, sampled at 102.4 kHz; 1800 rpm and 2 pole pairs. At one speed
+  // the sideband offsets 2fe, 4fe, fe, 5fe are whole orders for p = 1 too; the line at fe = 2·fr is not.
+  const fsHz = 102400;
+  const { vab } = simulateTwoLevelPwm({ fsHz, durationS: 2, carrierHz: 4000, fundamentalHz: 60, modulationIndex: 0.9, vdc: 400, oversample: 4 });
+  const rpm = () => 1800;
+  const { report } = await analyseSignal(vab, fsHz, rpm, { expectedPattern: 'm+n odd' });
+
+  it('finds the 4 kHz carrier, no shift and no spread', () => {
+    for (const hz of report.carrier.hz) expect(Math.abs(hz - 4000)).toBeLessThanOrEqual(fsHz / 8192);
+    expect(report.carrierShifts).toEqual([]);
+    expect(report.carrierSpreadHz).toBeNull();
+  });
+
+  it('infers 2 pole pairs with the inverter pattern, unambiguously', () => {
+    expect(report.polePairs).toEqual({ value: 2, source: 'inferred', pattern: 'm+n odd', ambiguous: false, settledByChannel: false });
+  });
+
+  it('marks the families of the inverter pattern as explained', () => {
+    expect(report.families.find((f) => f.m === 1 && f.n === 2)!.explained).toBe(true);
+    expect(report.families.find((f) => f.m === 2 && f.n === 1)!.explained).toBe(true);
+    expect(report.families.find((f) => f.m === 1 && f.n === 1)!.explained).toBe(false);
   });
 });
 

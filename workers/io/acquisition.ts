@@ -81,6 +81,12 @@ export function assembleRecording(input: AssembleInput, wanted?: number[]): Deco
   interface Channel { name: string; unit: string | null; data: NumericArray; offset: number; length: number }
   const channels: Channel[] = [];
   for (const a of channelArrays) {
+    if (a.rows > 1 && a.cols > a.rows) {
+      throw new RecordingError(
+        'BAD_STRUCTURE',
+        `${fileName}: the matrix ${a.name} is ${a.rows}×${a.cols}, more channels than samples; channels go in columns (${a.cols}×${a.rows}): transpose it.`,
+      );
+    }
     if (a.rows === 1 || a.cols === 1) channels.push({ name: a.name, unit: a.unit, data: a.data, offset: 0, length: a.rows * a.cols });
     else for (let j = 0; j < a.cols; j++) channels.push({ name: `${a.name} ${j + 1}`, unit: a.unit, data: a.data, offset: j * a.rows, length: a.rows });
   }

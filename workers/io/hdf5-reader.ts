@@ -11,7 +11,8 @@
  * MAT v7.3: the level 5 rules (acquisition.ts): a scalar fs or a time vector t, matrices in columns.
  *
  * The whole file goes into h5wasm's in-memory file system: HDF5 needs random access the library does
- * itself, and the ByteSource is asynchronous.
+ * itself, and the ByteSource is asynchronous. So an HDF5 file takes about twice its size in memory while
+ * it is read (WebAssembly memory is at most 4 GB): fine for the usual exports, not for multi-GB files.
  */
 import { assembleRecording, RATE_NAMES, type NamedArray, type NumericArray } from './acquisition';
 import type { ByteSource } from './byte-source';
@@ -104,7 +105,14 @@ export async function readHdf5(source: ByteSource, options: Hdf5Options = {}): P
   if (options.isCancelled?.()) throw new RecordingError('CANCELLED', `Reading ${file} was stopped.`);
   const { h5, FS } = await h5wasm();
   const path = `/fanlight-${++fileCounter}.h5`;
-  FS.writeFile(path, bytes);
+  try {
+    FS.writeFile(path, bytes);
+  } catch {
+    throw new RecordingError(
+      'READ_FAILED',
+      `${file} (${(source.size / 2 ** 20).toFixed(0)} MB) does not fit in the HDF5 reader's memory; save fewer or shorter channels per file.`,
+    );
+  }
   let f: InstanceType<H5['File']> | null = null;
   try {
     try {

@@ -110,6 +110,31 @@ describe('MAT-file level 5', () => {
     expect(cut.message).toMatch(/^truncated\.mat is cut short: the variable at byte \d+ needs \d+ bytes/);
   });
 
+  it('refuses a matrix with channels in rows, naming the fix', async () => {
+    // a hand-made level 5 file: header, then one miMATRIX "acc" of class double, 2×3
+    const le = (words: number[]) => new Uint8Array(new Uint32Array(words).buffer);
+    const header = new Uint8Array(128);
+    header.set(new TextEncoder().encode('MATLAB 5.0 MAT-file, written by a test'.padEnd(116)));
+    header.set([0x00, 0x01, 0x49, 0x4d], 124); // version 0x0100, "IM": little endian
+    const body = [
+      le([6, 8, 6, 0]), // array flags: mxDOUBLE_CLASS
+      le([5, 8, 2, 3]), // dimensions 2×3
+      le([(3 << 16) | 1]), new Uint8Array([0x61, 0x63, 0x63, 0]), // small element: name "acc"
+      le([9, 48]), new Uint8Array(new Float64Array([1, 2, 3, 4, 5, 6]).buffer),
+    ];
+    const size = body.reduce((n, b) => n + b.byteLength, 0);
+    const file = new Uint8Array(128 + 8 + size);
+    file.set(header);
+    file.set(le([14, size]), 128);
+    let at = 136;
+    for (const b of body) {
+      file.set(b, at);
+      at += b.byteLength;
+    }
+    const e = await failure(decodeRecording(memorySource(file, 'rows.mat')));
+    expect(e.message).toBe('rows.mat: the matrix acc is 2×3, more channels than samples; channels go in columns (3×2): transpose it.');
+  });
+
   it('refuses a damaged compressed variable and a MAT-file of another level', async () => {
     const whole = bytes('drive_v5_compressed.mat');
     const damaged = whole.slice();

@@ -146,6 +146,10 @@ export async function readHdf5(source: ByteSource, options: Hdf5Options = {}): P
           skipped.push(`${name} (not numeric)`);
           continue;
         }
+        if (mat73 && entity.attrs.MATLAB_empty) {
+          skipped.push(`${name} (empty)`); // v7.3 keeps an empty array's size as its data
+          continue;
+        }
         const long = shape.filter((d) => d > 1);
         if (long.length > (mat73 ? 2 : 1)) {
           skipped.push(`${name} (${shape.join('×')})`);

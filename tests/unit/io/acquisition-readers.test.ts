@@ -154,6 +154,7 @@ describe('MAT-file v7.3 and HDF5', () => {
     const r = await decode('drive_v73.mat');
     expect(r.header.format).toBe('mat');
     expect(r.header.channels.map((c) => c.name)).toEqual(['acc 1', 'acc 2', 'ramp']);
+    expect(r.header.warnings).toEqual(['Not read as channels: unused (empty).']);
     expectDrive(r);
   });
 

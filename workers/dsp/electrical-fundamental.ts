@@ -10,7 +10,7 @@
  * such a channel (common practice: it carries the power). With fr = rpm/60, p = fe/fr. (The 3.5 section
  * and the √3 are recalled from memory; the baseband term itself is the first term of Black's series.)
  *
- * Per frame: the strongest bin in the band from 1.5·fr (three bins at least, clear of the window's DC
+ * Per frame: the strongest bin in the band from 0.5·fr (three bins at least, clear of the window's DC
  * lobe) up to fr·(maxPolePairs + 0.5), and below half the carrier; its peak is interpolated by a parabola
  * through the log spectrum (Smith, Spectral Audio Signal Processing, 2011, "Quadratic Interpolation of
  * Spectral Peaks"); it counts when it stands 20 dB above the band's median (a value chosen here, well
@@ -53,7 +53,7 @@ export function polePairsFromFundamental(
     if (!(fr > 0)) continue;
     const fc = carrierHz[f];
     const top = Math.min(fr * (maxPolePairs + 0.5), Number.isFinite(fc) ? fc / 2 : Infinity);
-    const lo = Math.max(3, Math.floor((1.5 * fr) / binHz));
+    const lo = Math.max(3, Math.floor((0.5 * fr) / binHz));
     const hi = Math.min(bins - 2, Math.ceil(top / binHz));
     if (hi - lo < 4) continue;
     const row = f * bins;

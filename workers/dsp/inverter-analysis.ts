@@ -95,8 +95,11 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   else {
     const fromSidebands = inferPolePairs(observeSidebandOffsets(power, layout, carrier.hz, frameRpm), 12, input.expectedPattern ?? null);
     // on a voltage or current channel the fundamental fe is a line of its own, and fe/fr tells the
-    // divisors of p apart where the sideband offsets cannot (electrical-fundamental.ts)
-    const fundamental = input.expectedPattern === 'm+n odd' ? polePairsFromFundamental(power, layout, carrier.hz, frameRpm, 12) : null;
+    // divisors of p apart where the sideband offsets cannot (electrical-fundamental.ts). Electrical: the
+    // channel says so, or it says nothing and its sidebands follow the inverter's pattern m + n odd (the
+    // force's is even; pole-pairs.ts)
+    const electrical = input.expectedPattern === 'm+n odd' || (!input.expectedPattern && fromSidebands.pattern === 'm+n odd');
+    const fundamental = electrical ? polePairsFromFundamental(power, layout, carrier.hz, frameRpm, 12) : null;
     const rpms = Array.from(frameRpm).filter((r) => r > 0).sort((a, b) => a - b);
     const frHz = (rpms[rpms.length >> 1] ?? NaN) / 60;
     const est = withFundamental(fromSidebands, fundamental?.polePairs ?? null, Math.max(0.35, layout.binHz / (2 * frHz)));

@@ -186,6 +186,14 @@ describe('a line-to-line voltage at one steady speed: the fundamental tells p fr
     expect(report.polePairs).toEqual({ value: 2, source: 'inferred', pattern: 'm+n odd', ambiguous: false, settledByChannel: false });
   });
 
+  it('at 5 pole pairs too, where the sidebands alone read 1; also with no quantity given, since the sidebands follow m + n odd', async () => {
+    const five = simulateTwoLevelPwm({ fsHz: 51200, durationS: 2, carrierHz: 12000, fundamentalHz: 150, modulationIndex: 0.8, vdc: 400, oversample: 4 }).vab;
+    for (const extra of [{ expectedPattern: 'm+n odd' as const }, {}]) {
+      const p = (await analyseSignal(five, 51200, rpm, extra)).report.polePairs;
+      expect(p).toMatchObject({ value: 5, pattern: 'm+n odd', ambiguous: false });
+    }
+  });
+
   it('marks the families of the inverter pattern as explained', () => {
     expect(report.families.find((f) => f.m === 1 && f.n === 2)!.explained).toBe(true);
     expect(report.families.find((f) => f.m === 2 && f.n === 1)!.explained).toBe(true);

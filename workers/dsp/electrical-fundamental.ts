@@ -6,14 +6,14 @@
  * any divisor of p) as well as p itself. The modulating wave is itself in the spectrum of an inverter's
  * output voltage and of the current it drives: the baseband term (m = 0, n = 1) of the double Fourier
  * series of a naturally sampled PWM wave, of amplitude M·Vdc/2 per leg and √3 times that line to line
- * (Holmes & Lipo 2003, ch. 3, §3.5; H. S. Black, Modulation Theory, 1953). It is the strongest line of the low band on
- * such a channel (common practice: it carries the power). With fr = rpm/60, p = fe/fr. (The 3.5 section
- * and the √3 are recalled from memory; the baseband term itself is the first term of Black's series.)
+ * (Holmes & Lipo 2003, ch. 3; H. S. Black, Modulation Theory, 1953; the section holding the three-phase
+ * case and its √3 recalled from memory). It is the strongest line of the low band on such a channel
+ * (common practice: it carries the power). With fr = rpm/60, p = fe/fr.
  *
  * Per frame: the strongest bin in the band from 0.5·fr (three bins at least, clear of the window's DC
  * lobe) up to fr·(maxPolePairs + 0.5), and below half the carrier; its peak is interpolated by a parabola
- * through the log spectrum (Smith, Spectral Audio Signal Processing, 2011, "Quadratic Interpolation of
- * Spectral Peaks"); it counts when it stands 20 dB above the band's median (a value chosen here, well
+ * through the log spectrum (J. O. Smith, Spectral Audio Signal Processing, 2011, "Quadratic Interpolation
+ * of Spectral Peaks"; edition recalled from memory); it counts when it stands 20 dB above the band's median (a value chosen here, well
  * above the scatter of a noise floor). The frame votes for round(fe/fr) when fe/fr lies within 0.2 of
  * that integer (a synchronous machine gives an integer; an induction machine's slip s raises fe/fr by
  * about s·p, so a large slip makes this fail and the sidebands decide alone, as before). The answer is
@@ -21,7 +21,7 @@
  *
  * The strongest line at 2fe or 3fe (a channel that carries an order of the force, or a distorted wave)
  * would read as 2p or 3p: the caller checks the answer against the sidebands (pole-pairs.ts,
- * agreeWithSidebands).
+ * withFundamental).
  */
 import type { StftLayout } from './stft';
 

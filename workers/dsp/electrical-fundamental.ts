@@ -13,8 +13,8 @@
  * Per frame: the strongest bin in the band from 0.5·fr (three bins at least, clear of the window's DC
  * lobe) up to fr·(maxPolePairs + 0.5), and below half the carrier; its peak is interpolated by a parabola
  * through the log spectrum (J. O. Smith, Spectral Audio Signal Processing, 2011, "Quadratic Interpolation
- * of Spectral Peaks"; edition recalled from memory); it counts when it stands 20 dB above the band's median (a value chosen here, well
- * above the scatter of a noise floor). The frame votes for round(fe/fr) when fe/fr lies within 0.2 of
+ * of Spectral Peaks"; edition recalled from memory); it counts when it stands 20 dB above the band's
+ * median (a value chosen here, well above the scatter of a noise floor). The frame votes for round(fe/fr) when fe/fr lies within 0.2 of
  * that integer (a synchronous machine gives an integer; an induction machine's slip s raises fe/fr by
  * about s·p, so a large slip makes this fail and the sidebands decide alone, as before). The answer is
  * the integer that at least 60 % of the frames with a line vote for (both fractions chosen here).

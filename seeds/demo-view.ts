@@ -4,17 +4,11 @@
  * on the detected carrier), with its snapshot computed here by the engine itself. Where the carrier steps and
  * which family is strongest are facts of the invented scenario (seeds/demo-recordings.ts), not measured.
  */
-import path from 'node:path';
-import { createRealFft } from '../workers/dsp/fft';
 import { mapAgainstSpeed } from '../workers/dsp/speed-map';
-import { rpmAtTimes, speedFromTacho } from '../workers/dsp/speed';
-import { computeFrames, frameTimeS, stftLayout } from '../workers/dsp/stft';
-import { makeWindow } from '../workers/dsp/window';
-import { decodeRecording } from '../workers/io/decode-recording';
-import { openFileSource } from '../server/cli/node-file-source';
 import { viewState, type ViewStateV1 } from '../server/schemas/views';
 import type { SnapshotHeader } from '../workers/io/snapshot-format';
 import { encodeSnapshot, quantiseDb } from '../workers/io/snapshot-codec';
+import { demoChannelMap } from './demo-analysis';
 
 export const DEMO_VIEW_TITLE = 'CA-7 run-up: the carrier steps from 8 to 12 kHz at 6000 rpm';
 export const RUN_UP_FILE = 'ca7-run-up-30s.wav';
@@ -24,7 +18,6 @@ export const RUN_UP_FILE = 'ca7-run-up-30s.wav';
 const RPM_FROM = 500;
 const RPM_TO = 12000;
 const POLE_PAIRS = 4;
-const ACC_FULL_SCALE_G = 10;
 const SHIFT_RPM = 6000;
 const SHIFT_S = ((SHIFT_RPM - RPM_FROM) / (RPM_TO - RPM_FROM)) * 30;
 const FREQ_TO_HZ = 20000;
@@ -87,22 +80,8 @@ export function demoViewState(): ViewStateV1 {
  * bins, 0–20 kHz reduced to 640 rows by keeping each group's maximum, quantised over the colour range.
  */
 export async function demoSnapshot(demoDir: string): Promise<Uint8Array> {
-  const source = await openFileSource(path.join(demoDir, RUN_UP_FILE));
-  let rec;
-  try {
-    rec = await decodeRecording(source, { channels: [0, 2] });
-  } finally {
-    await source.close();
-  }
-  const fs = rec.header.sampleRateHz;
-  const acc = rec.samples[0];
-  for (let i = 0; i < acc.length; i++) acc[i] *= ACC_FULL_SCALE_G;
-  const speed = speedFromTacho(rec.samples[1], fs, 60);
-  const layout = stftLayout(acc.length, fs, { window: 'hann', blockSize: 4096, overlap: 0.5 });
-  const power = new Float32Array(layout.frames * layout.bins);
-  computeFrames(acc, 0, layout, makeWindow('hann', layout.blockSize), await createRealFft(layout.blockSize), 0, layout.frames, power);
-  const times = Float64Array.from({ length: layout.frames }, (_, f) => frameTimeS(layout, f));
-  const bySpeed = mapAgainstSpeed(power, layout, rpmAtTimes(speed, times), { rpmStep: RPM_STEP, rpmMin: RPM_FROM, rpmMax: RPM_TO });
+  const { layout, power, frameRpm } = await demoChannelMap(demoDir, RUN_UP_FILE, 0, { window: 'hann', blockSize: 4096, overlap: 0.5 });
+  const bySpeed = mapAgainstSpeed(power, layout, frameRpm, { rpmStep: RPM_STEP, rpmMin: RPM_FROM, rpmMax: RPM_TO });
 
   const width = bySpeed.rpm.length;
   const binsTo = Math.min(layout.bins, Math.ceil(FREQ_TO_HZ / layout.binHz));

@@ -12,6 +12,7 @@ export interface SeedReport {
   projectCreated: boolean;
   recordingsRegistered: number;
   viewCreated: boolean;
+  comparisonCreated: boolean;
 }
 
 /** `demoDir`: where the demo recordings are (written there if missing); with it the project gets its content. */
@@ -56,6 +57,6 @@ export async function seedDemo(db: Knex, { demoDir }: { demoDir?: string } = {})
       });
     });
   }
-  const content = demoDir ? await seedDemoContent(db, demoDir) : { recordingsRegistered: 0, viewCreated: false };
+  const content = demoDir ? await seedDemoContent(db, demoDir) : { recordingsRegistered: 0, viewCreated: false, comparisonCreated: false };
   return { usersCreated, projectCreated, ...content };
 }

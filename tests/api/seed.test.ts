@@ -1,5 +1,6 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { DEMO_VIEW_TITLE, demoMarks, demoThread } from '../../seeds/demo-view';
+import { DEMO_COMPARISON_TITLE, FIRMWARE_B_FILE } from '../../seeds/demo-comparison';
+import { DEMO_VIEW_TITLE, RUN_UP_FILE, demoMarks, demoThread } from '../../seeds/demo-view';
 import { DEMO_PASSWORD, demoProject } from '../../seeds/demo-scenario';
 import { seedDemo } from '../../seeds/index';
 import { sessionFor } from '../support/actors';
@@ -24,7 +25,7 @@ describe('demo seed', () => {
       hashes: (await db('users').orderBy('id').pluck('password_hash')).join(','),
     });
     const before = await count();
-    expect(await seedDemo(db, { demoDir })).toEqual({ usersCreated: 0, projectCreated: false, recordingsRegistered: 0, viewCreated: false });
+    expect(await seedDemo(db, { demoDir })).toEqual({ usersCreated: 0, projectCreated: false, recordingsRegistered: 0, viewCreated: false, comparisonCreated: false });
     expect(await count()).toEqual(before);
   });
 
@@ -48,6 +49,32 @@ describe('demo seed', () => {
       expect(marks.map((m) => m.text)).toEqual(demoMarks.map((m) => m.text));
       const thread = (await s.request('GET', `/api/marks/${marks[0].id}/comments`)).body.comments as { body: string }[];
       expect(thread.map((c) => c.body)).toEqual(demoThread.filter((c) => c.mark === 0).map((c) => c.body));
+    },
+  );
+
+  it.each(['lead@fanlight.test', 'engineer@fanlight.test', 'viewer@fanlight.test'])(
+    '%s reads the saved comparison of the two firmware run-ups, one of its kind after two seeds',
+    async (email) => {
+      expect(await seedDemo(db, { demoDir })).toMatchObject({ viewCreated: false, comparisonCreated: false });
+      const s = await sessionFor(t.app, email, DEMO_PASSWORD);
+      const projects = (await s.request('GET', '/api/projects')).body.projects as { id: number; name: string }[];
+      const project = projects.find((p) => p.name === demoProject.name)!;
+      const views = (await s.request('GET', `/api/projects/${project.id}/views?q=firmware`)).body.views as { id: number; title: string; hasSnapshot: boolean }[];
+      const found = views.filter((v) => v.title === DEMO_COMPARISON_TITLE);
+      expect(found).toHaveLength(1);
+      expect(found[0].hasSnapshot).toBe(true);
+      const detail = (await s.request('GET', `/api/views/${found[0].id}`)).body.view;
+      const c = detail.state.comparison;
+      expect(c.runs.map((r: { name: string }) => r.name)).toEqual([RUN_UP_FILE, FIRMWARE_B_FILE]);
+      expect(c.track.guide).toEqual({ kind: 'family', m: 1, n: -1 });
+      expect(c.levels).toHaveLength(2);
+      const of = (run: string) => c.exceedances.filter((e: { run: string }) => e.run === run);
+      expect(of(RUN_UP_FILE).length).toBeGreaterThan(0);
+      expect(of(FIRMWARE_B_FILE)).toEqual([]);
+      const marks = (await s.request('GET', `/api/views/${found[0].id}/marks`)).body.marks as { id: number; text: string }[];
+      expect(marks.length).toBeGreaterThanOrEqual(1);
+      const replies = await Promise.all(marks.map(async (m) => (await s.request('GET', `/api/marks/${m.id}/comments`)).body.comments as { body: string }[]));
+      expect(replies.flat().length).toBeGreaterThanOrEqual(2);
     },
   );
 });

@@ -84,8 +84,9 @@ export async function analyseFile(file: string, o: Options, pool: MapThreadPool,
   return { fileName: rec.header.fileName, layout, power, enbwBins, frameRpm, report };
 }
 
-export async function inverterCommand(file: string, o: Options): Promise<Omit<InverterReport, 'families'> & { families: unknown[] }> {
-  const pool = new MapThreadPool();
+/** With `pool` given (a campaign worker's one map thread) the map runs there; else on a pool of its own. */
+export async function inverterCommand(file: string, o: Options, given?: MapThreadPool): Promise<Omit<InverterReport, 'families'> & { families: unknown[] }> {
+  const pool = given ?? new MapThreadPool();
   try {
     const { report } = await analyseFile(file, o, pool);
     return {
@@ -94,6 +95,6 @@ export async function inverterCommand(file: string, o: Options): Promise<Omit<In
       families: report.families.map(({ m, n, rpm, hz, rms, crossing, filtered, explained }) => ({ m, n, rpm, hz, rms, crossing, filtered, explained })),
     };
   } finally {
-    await pool.close();
+    if (!given) await pool.close();
   }
 }

@@ -6,6 +6,7 @@
 import { readRecordingHeader } from '../../workers/io/decode-recording';
 import { RecordingError } from '../../workers/io/recording-error';
 import { SpeedError } from '../../workers/dsp/speed';
+import { campaignCommand } from './commands/campaign';
 import { compareCommand } from './commands/compare';
 import { extractCommand } from './commands/extract';
 import { inverterCommand } from './commands/inverter';
@@ -17,7 +18,7 @@ import { openFileSource } from './node-file-source';
 import { reportWarnings } from './recording-input';
 import { Options, parseArgs, UsageError } from './options';
 
-const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter|extract FILE [options], or compare FILE_A FILE_B [FILE…] [options] (see the README, "Batch mode")';
+const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter|extract FILE [options], compare FILE_A FILE_B [FILE…] [options], or campaign DIR|FILE… --preset PRESET.json [options] (see the README, "Batch mode")';
 
 async function info(file: string) {
   const source = await openFileSource(file);
@@ -48,8 +49,16 @@ const commands: Record<string, (file: string, o: Options) => Promise<unknown>> =
 
 export async function main(argv: string[]): Promise<number> {
   try {
-    const parsed = parseArgs(argv, USAGE, (command) => command === 'compare');
+    const parsed = parseArgs(argv, USAGE, (command) => command === 'compare' || command === 'campaign');
     const options = new Options(parsed.options, parsed.sequence);
+    if (parsed.command === 'campaign') {
+      // Ctrl-C stops the campaign cleanly: running files are abandoned, what is written stays
+      const stop = new AbortController();
+      process.once('SIGINT', () => stop.abort());
+      const summary = await campaignCommand(parsed.files, options, stop.signal);
+      process.stdout.write(`${JSON.stringify(summary)}\n`);
+      return stop.signal.aborted ? 130 : 0;
+    }
     if (parsed.command === 'compare') {
       process.stdout.write(`${JSON.stringify(await compareCommand(parsed.files, options))}\n`);
       return 0;

@@ -38,16 +38,19 @@ export async function workerMain(argv: string[]): Promise<number> {
     return 2;
   }
   const pool = new CampaignPool(concurrency);
+  // BullMQ leaves a client it was given open: closed below
+  const connection = redisClient(url);
   const worker = new Worker<CampaignJob>(
     QUEUE_NAME,
     async (job) => {
+      process.stderr.write(`analyze-worker: start ${job.data.file}\n`);
       const outcome = await pool.run(job.data.file, job.data.options);
       process.stderr.write(`analyze-worker: ${outcome.ok ? 'ok' : 'FAILED'} ${job.data.file}\n`);
       if (outcome.ok) return outcome.inverter;
       throw outcome.final ? new UnrecoverableError(outcome.error) : new Error(outcome.error);
     },
     {
-      connection: redisClient(url),
+      connection,
       concurrency,
       lockDuration: lockMs,
       stalledInterval: Math.max(500, lockMs / 2),
@@ -63,6 +66,7 @@ export async function workerMain(argv: string[]): Promise<number> {
   // lets the running files finish (their results reach the queue), then stops
   await worker.close();
   await pool.close();
+  connection.disconnect();
   return 0;
 }
 

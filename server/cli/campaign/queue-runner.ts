@@ -31,9 +31,10 @@ export async function runQueued(
   onResult: (file: string, outcome: Outcome) => void,
   signal: AbortSignal,
 ): Promise<void> {
-  const connection = redisClient(url);
-  const queue = new Queue<CampaignJob>(QUEUE_NAME, { connection });
-  const events = new QueueEvents(QUEUE_NAME, { connection: redisClient(url) });
+  // BullMQ leaves clients it was given open: they are closed here
+  const clients = [redisClient(url), redisClient(url)];
+  const queue = new Queue<CampaignJob>(QUEUE_NAME, { connection: clients[0] });
+  const events = new QueueEvents(QUEUE_NAME, { connection: clients[1] });
   try {
     await events.waitUntilReady();
     const jobs = await queue.addBulk(
@@ -61,5 +62,6 @@ export async function runQueued(
   } finally {
     await events.close();
     await queue.close();
+    for (const c of clients) c.disconnect();
   }
 }

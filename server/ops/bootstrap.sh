@@ -10,6 +10,8 @@ shift
 apt_wanted=()
 [ -x /usr/sbin/mariadbd ] || command -v mariadbd >/dev/null 2>&1 || apt_wanted+=(mariadb-server)
 command -v mariadb-install-db >/dev/null 2>&1 || [ -x /usr/bin/mariadb-install-db ] || apt_wanted+=(mariadb-server)
+# campaign queues (analyze campaign --queue, analyze-worker) run on a private Redis
+[ -x /usr/bin/redis-server ] || apt_wanted+=(redis-server)
 if [ "$mode" = test ]; then
   [ -x /usr/bin/chromium ] || apt_wanted+=(chromium)
   # the report test renders the PDF with pdftoppm and reads its text with pdftotext

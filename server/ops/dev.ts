@@ -8,6 +8,7 @@ import { serve } from '../index';
 import { printBanner } from './banner';
 import { prepareDatabase } from './database';
 import { prepareDemoRecordings } from './demo-files';
+import { startRedis } from './redis';
 import { markServing, onShutdown } from './shutdown';
 
 process.env.PUBLIC_ORIGIN ??= 'http://127.0.0.1:5173'; // links in mail open the dev server
@@ -16,6 +17,8 @@ const config = loadConfig();
 const { mariadb } = await prepareDatabase('app', config.db, { demoDir: config.demoRecordingsDir });
 onShutdown(() => mariadb.stop());
 mariadb.supervise();
+const redis = await startRedis('app');
+onShutdown(() => redis.stop());
 prepareDemoRecordings(config);
 const mailLine = await startMailFakeIfWanted(config);
 const app = await serve(config);

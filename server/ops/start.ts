@@ -1,6 +1,6 @@
 /**
- * `npm start`: private MariaDB → database, user, migrations, demo seed → client build → mail fake → app + API on
- * http://127.0.0.1:3000 (PORT overrides). Ctrl-C stops everything this started; the data stays in .data/.
+ * `npm start`: private MariaDB and Redis (campaign queues, 127.0.0.1:36379) → database, user, migrations,
+ * demo seed → client build → mail fake → app + API on http://127.0.0.1:3000 (PORT overrides). Ctrl-C stops everything this started; the data stays in .data/.
  */
 import { loadConfig } from '../config';
 import { serve } from '../index';
@@ -8,6 +8,7 @@ import { printBanner } from './banner';
 import { buildClientIfStale } from './client-build';
 import { prepareDatabase } from './database';
 import { prepareDemoRecordings } from './demo-files';
+import { startRedis } from './redis';
 import { startMailFakeIfWanted } from './mail-fake';
 import { markServing, onShutdown } from './shutdown';
 
@@ -18,6 +19,8 @@ if (mariadb.adopted) console.log('fanlight: MariaDB was already running; it is u
 onShutdown(() => mariadb.stop());
 // If the database dies under the app, start it again (with a growing wait); the app answers 503 meanwhile.
 mariadb.supervise();
+const redis = await startRedis('app');
+onShutdown(() => redis.stop());
 if (applied.length) console.log(`fanlight: applied ${applied.length} migration(s)`);
 if (seed.usersCreated || seed.projectCreated) console.log('fanlight: seeded the demo accounts and project');
 if (seed.recordingsRegistered || seed.viewCreated) console.log('fanlight: seeded the demo recordings and the demo view');

@@ -13,6 +13,7 @@ import { DATA_DIR, PROJECT_ROOT, loadConfig } from '../config';
 import { buildClientIfStale } from './client-build';
 import { prepareDatabase } from './database';
 import { prepareDemoRecordings } from './demo-files';
+import { startRedis } from './redis';
 import { holdRunLock } from './run-lock';
 import { startMailFakeIfWanted } from './mail-fake';
 import { onShutdown, shutdown } from './shutdown';
@@ -40,6 +41,9 @@ await holdRunLock('test');
 console.log(`fanlight test: starting the test MariaDB on 127.0.0.1:${config.db.port}`);
 const { mariadb } = await prepareDatabase('test', config.db, { recreate: true, demoDir: config.demoRecordingsDir });
 onShutdown(() => mariadb.stop());
+// the test processes get REDIS_URL (127.0.0.1:36380 unless REDIS_URL names a real Redis)
+const redis = await startRedis('test');
+onShutdown(() => redis.stop());
 rmSync(config.smtp.outboxDir, { recursive: true, force: true }); // each run reads only its own mail
 await startMailFakeIfWanted(config);
 

@@ -1,6 +1,7 @@
 /**
  * `npm start`: private MariaDB and Redis (campaign queues, 127.0.0.1:36379) → database, user, migrations,
- * demo seed → client build → mail fake → app + API on http://127.0.0.1:3000 (PORT overrides). Ctrl-C stops everything this started; the data stays in .data/.
+ * demo seed → client build → mail fake → app + API on http://127.0.0.1:3000 (PORT overrides). Ctrl-C stops
+ * everything this started; the data stays in .data/.
  */
 import { loadConfig } from '../config';
 import { serve } from '../index';

@@ -1,6 +1,7 @@
 /** `npm run bench`: the performance figures the README quotes. Not a test: it measures and prints. */
 import { runApiLoadBench } from './api-load-bench';
 import { runBrowserBench } from './browser-bench';
+import { runCampaignBench } from './campaign-bench';
 import { runCompareBench } from './compare-bench';
 import { runDecodeBench } from './decode-bench';
 import { runExtractBench } from './extract-bench';
@@ -30,6 +31,8 @@ targets.push(`compare of two 20 s run-ups under 6 s: ${compare.bestS < 6 ? 'met'
 console.log('Vold-Kalman extraction (batch CLI):');
 const extract = runExtractBench(log);
 targets.push(`extract on 20 s, 3 components under 5 s: ${extract.bestS < 5 ? 'met' : 'NOT met'}`);
+console.log('campaigns (batch CLI, embedded and over a Redis queue):');
+await runCampaignBench(log);
 console.log('listening: Vold-Kalman playback blocks (workers/dsp):');
 const playback = runPlaybackBench(log);
 targets.push(`first playback block under 0.5 s: ${playback.firstBlockS < 0.5 ? 'met' : 'NOT met'}`);

@@ -12,13 +12,14 @@ import { extractCommand } from './commands/extract';
 import { inverterCommand } from './commands/inverter';
 import { levelsCommand } from './commands/levels';
 import { mapCommand } from './commands/map';
+import { soundCommand } from './commands/sound';
 import { spectrumCommand } from './commands/spectrum';
 import { speedCommand } from './commands/speed';
 import { openFileSource } from './node-file-source';
 import { reportWarnings } from './recording-input';
 import { Options, parseArgs, UsageError } from './options';
 
-const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter|extract FILE [options], compare FILE_A FILE_B [FILE…] [options], or campaign DIR|FILE… --preset PRESET.json [options] (see the README, "Batch mode")';
+const USAGE = 'usage: npm run -s analyze -- info|spectrum|levels|speed|map|inverter|extract|sound FILE [options], compare FILE_A FILE_B [FILE…] [options], or campaign DIR|FILE… --preset PRESET.json [options] (see the README, "Batch mode")';
 
 async function info(file: string) {
   const source = await openFileSource(file);
@@ -45,6 +46,7 @@ const commands: Record<string, (file: string, o: Options) => Promise<unknown>> =
   map: mapCommand,
   inverter: inverterCommand,
   extract: extractCommand,
+  sound: soundCommand,
 };
 
 export async function main(argv: string[]): Promise<number> {

@@ -63,7 +63,7 @@ describe('timeVaryingLoudness', () => {
     expect(r.t.length).toBe(r.sone.length);
   });
 
-  it('rises during a 500 ms tone burst and decays after it, to under 10 % within 300 ms (Zwicker & Fastl 2007 §8.7: decay within some 100 ms)', () => {
+  it('rises during a 500 ms tone burst and decays after it, to under 10 % within 300 ms (Zwicker & Fastl 2007 ch. 8: decay within some 100 ms)', () => {
     const r = timeVaryingLoudness(toneBurst(1000, 70, 0.5, 1.2), FS, 'free');
     const at = (s: number) => r.sone[r.t.findIndex((t) => t >= s)];
     const steady = at(0.45);
@@ -73,7 +73,7 @@ describe('timeVaryingLoudness', () => {
     expect(at(0.8)).toBeLessThan(0.1 * steady);
   });
 
-  it('reads a 10 ms burst softer than a 500 ms one of the same level (temporal integration, Zwicker & Fastl 2007 §8.7)', () => {
+  it('reads a 10 ms burst softer than a 500 ms one of the same level (temporal integration, Zwicker & Fastl 2007 ch. 8)', () => {
     const short = timeVaryingLoudness(toneBurst(1000, 70, 0.01, 0.6), FS, 'free');
     const long = timeVaryingLoudness(toneBurst(1000, 70, 0.5, 0.6), FS, 'free');
     expect(short.maxSone).toBeLessThan(0.8 * long.maxSone);

@@ -92,7 +92,7 @@ function rangeRow(n: number): number {
 /**
  * Specific loudness N'(z) from the core loudness: each band holds its core value over its width on z;
  * where the next band is lower, the pattern falls along the upper slope USL (sone/Bark per Bark) of the
- * range RNS it is in, ISO 532-1:2017 Annex A [1] (Zwicker's slope procedure, [2] §8.7). Returns the
+ * range RNS it is in, ISO 532-1:2017 Annex A [1] (Zwicker's slope procedure, [2] ch. 8). Returns the
  * total N (exact integral of the piecewise-linear pattern) and N' sampled at 0.1 … 24 Bark.
  */
 export function specificFromCore(core: ArrayLike<number>): { totalSone: number; specific: Float64Array } {

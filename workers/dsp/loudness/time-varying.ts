@@ -9,7 +9,7 @@
  *
  * References:
  *   [1] ISO 532-1:2017, Acoustics — Methods for calculating loudness — Part 1: Zwicker method, clause 6.
- *   [2] E. Zwicker, H. Fastl, Psychoacoustics — Facts and Models, 3rd ed., Springer 2007, §8.7
+ *   [2] E. Zwicker, H. Fastl, Psychoacoustics — Facts and Models, 3rd ed., Springer 2007, ch. 8
  *       (temporal effects: nonlinear decay of the loudness of short and long sounds).
  */
 import { REF_SOUND_PRESSURE_PA } from '../levels';
@@ -25,7 +25,7 @@ export const MAX_RETURNED_POINTS = 2000;
 // Smoothing of the squared band signals: three first-order low-passes in series, τ = 2/(3·fm) up to
 // 1 kHz and 2/3 ms above [1, clause 6] (from memory).
 const smoothingTauS = (nominalHz: number) => 2 / (3 * Math.min(nominalHz, 1000));
-// Nonlinear decay of the core loudness [1, clause 6; 2, §8.7] (from memory): after a short sound the
+// Nonlinear decay of the core loudness [1, clause 6; 2, ch. 8] (from memory): after a short sound the
 // loudness falls fast (τ 5 ms), after a long one slowly (τ 15 ms); the store that decides between the
 // two fills with τ 75 ms.
 const DECAY_SHORT_S = 0.005;

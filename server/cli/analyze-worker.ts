@@ -57,7 +57,9 @@ export async function workerMain(argv: string[]): Promise<number> {
       maxStalledCount: 2,
     },
   );
-  worker.on('error', (e) => process.stderr.write(`analyze-worker: ${e.message}\n`));
+  // ioredis retries a lost connection: each new error said once
+  let said = '';
+  worker.on('error', (e) => e.message !== said && process.stderr.write(`analyze-worker: ${(said = e.message)}\n`));
   process.stderr.write(`analyze-worker: taking campaign jobs from ${url} with ${concurrency} threads\n`);
   await new Promise<void>((resolve) => {
     process.once('SIGINT', resolve);

@@ -17,16 +17,26 @@ export class CampaignPool {
 
   constructor(size = availableParallelism()) {
     this.slots = Array.from({ length: Math.max(1, size) }, () => {
-      // A worker thread does not inherit the tsx loader: register it there, then load the TypeScript entry.
-      const entry = new URL('./campaign-thread.ts', import.meta.url).href;
-      const worker = new Worker(`import('tsx/esm/api').then((t) => { t.register(); return import(${JSON.stringify(entry)}); });`, { eval: true });
-      const slot: Slot = { worker, busy: false };
-      worker.on('message', (m: { id: number; outcome: Outcome }) => this.settle(m.id, (p) => p.resolve(m.outcome)));
-      worker.on('error', (e) => {
-        for (const [id, p] of this.pending) if (p.slot === slot) this.settle(id, (q) => q.reject(e));
-      });
+      const slot = { busy: false } as Slot;
+      this.spawn(slot);
       return slot;
     });
+  }
+
+  /** Starts the slot's thread; one that dies (out of memory, a crash in native code) fails its file and is replaced. */
+  private spawn(slot: Slot): void {
+    // A worker thread does not inherit the tsx loader: register it there, then load the TypeScript entry.
+    const entry = new URL('./campaign-thread.ts', import.meta.url).href;
+    const worker = new Worker(`import('tsx/esm/api').then((t) => { t.register(); return import(${JSON.stringify(entry)}); });`, { eval: true });
+    slot.worker = worker;
+    worker.on('message', (m: { id: number; outcome: Outcome }) => this.settle(m.id, (p) => p.resolve(m.outcome)));
+    const fail = (e: Error) => {
+      if (this.closed || slot.worker !== worker) return;
+      this.spawn(slot);
+      for (const [id, p] of this.pending) if (p.slot === slot) this.settle(id, (q) => q.reject(e));
+    };
+    worker.on('error', fail);
+    worker.on('exit', (code) => fail(new Error(`it stopped (exit ${code})`)));
   }
 
   get size(): number {

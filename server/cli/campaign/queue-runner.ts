@@ -6,6 +6,7 @@
 import { createHash } from 'node:crypto';
 import { Queue, QueueEvents } from 'bullmq';
 import type { Outcome } from './analyse-one';
+import { UsageError } from '../options';
 import { QUEUE_NAME, redisClient } from './redis-connection';
 
 export interface CampaignJob {
@@ -23,6 +24,16 @@ export function jobIdOf(campaignId: string, file: string): string {
 /** A worker that dies is noticed by stalled-job detection and its job given to another; a bad file fails at once. */
 export const JOB_ATTEMPTS = 3;
 
+/** ioredis waits for an absent Redis for ever: one sentence (exit 2) after 5 s instead. */
+async function checkRedisAnswers(url: string): Promise<void> {
+  const probe = redisClient(url);
+  let last = '';
+  probe.on('error', (e: Error) => (last = e.message));
+  const answered = await Promise.race([probe.ping().then(() => true, () => false), new Promise<false>((resolve) => setTimeout(() => resolve(false), 5000).unref())]);
+  probe.disconnect();
+  if (!answered) throw new UsageError(`No Redis answers at ${url}${last ? ` (${last})` : ''}; start one, or leave out --queue to run on this machine.`);
+}
+
 export async function runQueued(
   url: string,
   campaignId: string,
@@ -31,10 +42,18 @@ export async function runQueued(
   onResult: (file: string, outcome: Outcome) => void,
   signal: AbortSignal,
 ): Promise<void> {
+  await checkRedisAnswers(url);
   // BullMQ leaves clients it was given open: they are closed here
   const clients = [redisClient(url), redisClient(url)];
   const queue = new Queue<CampaignJob>(QUEUE_NAME, { connection: clients[0] });
   const events = new QueueEvents(QUEUE_NAME, { connection: clients[1] });
+  // a lost connection is retried by ioredis; said once on stderr rather than at every retry
+  let said = '';
+  const warn = (e: Error) => {
+    if (e.message !== said) process.stderr.write(`campaign: Redis at ${url}: ${(said = e.message)}\n`);
+  };
+  queue.on('error', warn);
+  events.on('error', warn);
   try {
     await events.waitUntilReady();
     const jobs = await queue.addBulk(

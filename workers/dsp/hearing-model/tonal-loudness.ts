@@ -1,0 +1,155 @@
+/**
+ * Tonal and noise parts of a band's specific loudness from its autocorrelation function, the core of
+ * the tonality of ECMA-418-2 [1] clause 6.2 (after Sottek's hearing-model tonality [2]):
+ *
+ * - 6.2.2: each block's ACF, unbiased (divided by N − lag) and scaled so its value at lag 0 is the
+ *   block's squared specific loudness N'². Fanlight takes it of the band signal itself, before the
+ *   rectification (an assumption: the clause's exact input is not recalled).
+ * - 6.2.3: the scaled ACFs of the band and its neighbours (±1 band, fewer at the ends; the
+ *   standard's neighbour count is not recalled) are averaged, which adds a tone's correlation
+ *   coherently and a noise's not.
+ * - 6.2.4: a lag window past the lags where a noise's ACF has decayed (12 filter time constants τ,
+ *   at most a quarter block) and half a block long, Hann-weighted.
+ * - 6.2.5: a tone leaves a cosine of undamped amplitude N_t'² in the windowed ACF; the peak of its
+ *   spectrum within ±Δf of the band centre gives N_t'² (2·|peak|/Σw) and the tonal frequency
+ *   (parabolic interpolation of the log magnitude [3]); the rest of N'² is the noise part.
+ *
+ * References:
+ *   [1] ECMA-418-2, 2nd edition, December 2022, clauses 6.2.2–6.2.5.
+ *   [2] R. Sottek, "Progress in calculating tonality of technical sounds", Proc. Inter-Noise 2014.
+ *   [3] J. O. Smith, Spectral Audio Signal Processing (W3K, 2011), "Quadratic interpolation of
+ *       spectral peaks".
+ */
+import { type BandBlocks, fftPlan } from './band-blocks';
+import { BAND_CENTRES_HZ, HMS_FS_HZ, bandBandwidthHz, gammatoneTimeConstantS } from './filter-bank';
+
+/** Tonal and noise loudness of one band at its blocks' centres. */
+export interface BandTonalLoudness {
+  centresS: Float64Array;
+  /** N_t', the tonal part of the specific loudness (sone_HMS per Bark_HMS). */
+  tonal: Float64Array;
+  /** N_n', the noise part. */
+  noise: Float64Array;
+  /** Frequency of the tonal component (Hz). */
+  tonalHz: Float64Array;
+}
+
+/** Lags (samples) a noise's ACF needs to decay: 12 time constants of the band's gammatone (Fanlight's choice). */
+const DECAY_TIME_CONSTANTS = 12;
+/**
+ * Span (s) over which the windowed ACFs of consecutive blocks are averaged before the peak is read
+ * (Fanlight's choice): a noise's random long-lag correlation averages out, a steady tone's does not.
+ * The short blocks of the high bands (21 ms) alone leave noise a tonal fraction near 0.2.
+ */
+export const SMOOTHING_S = 0.2;
+
+/**
+ * Tonal and noise loudness of band `band` for each of its blocks, from its own blocks and its
+ * neighbours' blocks under the same segmentation ({@link BandBlocks}, same blockSize and hop).
+ */
+export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): BandTonalLoudness {
+  const own = blocks[0];
+  const n = own.blockSize;
+  const nfft = 2 * n;
+  const rowLength = n + 1;
+  const fc = BAND_CENTRES_HZ[band];
+  const bandwidth = bandBandwidthHz(fc);
+  const lag0 = Math.min(n / 4, Math.ceil(DECAY_TIME_CONSTANTS * gammatoneTimeConstantS(bandwidth) * HMS_FS_HZ));
+  const m = n / 2;
+  const hann = new Float64Array(m);
+  // Σ of the window times the biased ACF's taper (N − lag)/N: a cosine of amplitude A in the ACF peaks at A·Σ/2.
+  let taperedSum = 0;
+  for (let i = 0; i < m; i++) {
+    hann[i] = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / m);
+    taperedSum += (hann[i] * (n - lag0 - i)) / n;
+  }
+  // Spectrum bins of the windowed ACF (length n, bin spacing fs/n) searched for the tone.
+  const kLo = Math.max(1, Math.floor(((fc - bandwidth) * n) / HMS_FS_HZ));
+  const kHi = Math.min(n / 2 - 1, Math.ceil(((fc + bandwidth) * n) / HMS_FS_HZ));
+
+  const inv = fftPlan(nfft);
+  const lagFft = fftPlan(n);
+  const sym = new Float64Array(nfft);
+  const acfSpec = inv.createComplexArray() as number[];
+  const seg = new Float64Array(n);
+  const segSpec = lagFft.createComplexArray() as number[];
+
+  // First pass: each block's windowed-ACF spectrum over the searched bins (and one either side).
+  const first = kLo - 1;
+  const width = kHi - kLo + 3;
+  const spectra = new Float64Array(own.count * width * 2);
+  const lag0Values = new Float64Array(own.count);
+  for (let k = 0; k < own.count; k++) {
+    sym.fill(0);
+    let lag0Value = 0;
+    for (const b of blocks) {
+      const nl = b.loudness[k];
+      if (!(b.energy[k] > 0) || nl === 0) continue;
+      // Scaled so this band's ACF at lag 0 is N'², clause 6.2.2; averaged over the bands, 6.2.3.
+      const w = (nl * nl) / b.energy[k] / blocks.length;
+      lag0Value += (nl * nl) / blocks.length;
+      const row = k * rowLength;
+      for (let i = 0; i <= n; i++) sym[i] += w * b.power[row + i];
+    }
+    lag0Values[k] = lag0Value;
+    if (lag0Value === 0) continue;
+    for (let i = 1; i < n; i++) sym[nfft - i] = sym[i];
+    // A real even sequence: its forward transform is nfft times its inverse.
+    inv.realTransform(acfSpec, sym);
+    seg.fill(0);
+    for (let i = 0; i < m; i++) seg[i] = (hann[i] * acfSpec[2 * (lag0 + i)]) / nfft;
+    lagFft.realTransform(segSpec, seg);
+    const at = k * width * 2;
+    for (let i = 0; i < 2 * width; i++) spectra[at + i] = segSpec[2 * first + i];
+  }
+
+  // Second pass: the moving average over SMOOTHING_S, then the peak.
+  const half = Math.max(0, Math.round(SMOOTHING_S / 2 / (own.hop / HMS_FS_HZ)));
+  const sum = new Float64Array(width * 2);
+  let sumLag0 = 0;
+  let lo = 0;
+  let hi = -1;
+  const result: BandTonalLoudness = {
+    centresS: own.centresS,
+    tonal: new Float64Array(own.count),
+    noise: new Float64Array(own.count),
+    tonalHz: new Float64Array(own.count).fill(fc),
+  };
+  for (let k = 0; k < own.count; k++) {
+    const wantHi = Math.min(own.count - 1, k + half);
+    const wantLo = Math.max(0, k - half);
+    while (hi < wantHi) {
+      hi++;
+      sumLag0 += lag0Values[hi];
+      for (let i = 0; i < 2 * width; i++) sum[i] += spectra[hi * width * 2 + i];
+    }
+    while (lo < wantLo) {
+      sumLag0 -= lag0Values[lo];
+      for (let i = 0; i < 2 * width; i++) sum[i] -= spectra[lo * width * 2 + i];
+      lo++;
+    }
+    const blocksIn = hi - lo + 1;
+    const lag0Value = sumLag0 / blocksIn;
+    if (!(lag0Value > 0)) continue;
+    let best = 1;
+    let bestMag = -1;
+    for (let i = 1; i < width - 1; i++) {
+      const mag = Math.hypot(sum[2 * i], sum[2 * i + 1]);
+      if (mag > bestMag) {
+        bestMag = mag;
+        best = i;
+      }
+    }
+    const a = Math.log(Math.hypot(sum[2 * best - 2], sum[2 * best - 1]) + 1e-300);
+    const b = Math.log(bestMag + 1e-300);
+    const c = Math.log(Math.hypot(sum[2 * best + 2], sum[2 * best + 3]) + 1e-300);
+    const den = a - 2 * b + c;
+    const delta = den < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a - c)) / den)) : 0;
+    const peak = Math.exp(b - 0.25 * (a - c) * delta) / blocksIn;
+    const tonalSquare = Math.min(lag0Value, (2 * peak) / taperedSum);
+    result.tonal[k] = Math.sqrt(tonalSquare);
+    result.noise[k] = Math.sqrt(lag0Value - tonalSquare);
+    result.tonalHz[k] = ((first + best + delta) * HMS_FS_HZ) / n;
+  }
+  return result;
+}

@@ -1,5 +1,7 @@
 /** A pool of campaign worker threads (campaign-thread.ts), each analysing one file at a time. */
+import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
+import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import type { Outcome } from './analyse-one';
 
@@ -25,9 +27,15 @@ export class CampaignPool {
 
   /** Starts the slot's thread; one that dies (out of memory, a crash in native code) fails its file and is replaced. */
   private spawn(slot: Slot): void {
+    // Run from the CLI's JavaScript bundle (analyze-launch.mjs) when it holds this thread's entry; its map
+    // thread then comes from the bundle too.
+    const bundleDir = (globalThis as { fanlightCliBundleDir?: string }).fanlightCliBundleDir;
+    const bundled = bundleDir && existsSync(path.join(bundleDir, 'campaign-thread.js')) ? path.join(bundleDir, 'campaign-thread.js') : null;
     // A worker thread does not inherit the tsx loader: register it there, then load the TypeScript entry.
     const entry = new URL('./campaign-thread.ts', import.meta.url).href;
-    const worker = new Worker(`import('tsx/esm/api').then((t) => { t.register(); return import(${JSON.stringify(entry)}); });`, { eval: true });
+    const worker = bundled
+      ? new Worker(bundled, { workerData: { bundleDir } })
+      : new Worker(`import('tsx/esm/api').then((t) => { t.register(); return import(${JSON.stringify(entry)}); });`, { eval: true });
     slot.worker = worker;
     worker.on('message', (m: { id: number; outcome: Outcome }) => this.settle(m.id, (p) => p.resolve(m.outcome)));
     const fail = (e: Error) => {

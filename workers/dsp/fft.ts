@@ -8,6 +8,7 @@
  * memory (frame-kernel.ts, kernels/frame-power.wat); without it, in JavaScript.
  */
 import FFTJS from 'fft.js';
+import { powerToDecibels } from './decibels';
 import { loadPffftWithKernel, type FrameKernel } from './frame-kernel';
 import type { PffftModule } from './pffft-module';
 import type { SpectralWindow } from './window';
@@ -33,9 +34,13 @@ export interface RealFft {
   framePower(x: Float32Array, start: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number): void;
   /**
    * framePower for `count` frames starting at x[start], x[start + hop], …, into consecutive rows of
-   * N/2 + 1 values from out[at].
+   * N/2 + 1 values from out[at]. With `decibels`, the rows hold 10·lg(max(power, 1e−30)) instead
+   * (decibels.ts; in the WASM kernel where it runs).
    */
-  framesPower(x: Float32Array, start: number, hop: number, count: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number): void;
+  framesPower(
+    x: Float32Array, start: number, hop: number, count: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number,
+    decibels?: boolean,
+  ): void;
   dispose(): void;
 }
 
@@ -169,11 +174,12 @@ class PffftReal implements RealFft {
     }
   }
 
-  framesPower(x: Float32Array, start: number, hop: number, count: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number): void {
+  framesPower(x: Float32Array, start: number, hop: number, count: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number, decibels = false): void {
     const n = this.size;
     const bins = (n >> 1) + 1;
     if (!this.kernel || count <= 1 || hop % 4 !== 0 || hop > n) {
       for (let f = 0; f < count; f++) this.framePower(x, start + f * hop, win, out, at + f * bins, scale, edgeScale);
+      if (decibels) powerToDecibels(out, at, at + count * bins);
       return;
     }
     // Overlapping frames share their samples: copy a batch's span into WASM memory once and transform
@@ -187,7 +193,8 @@ class PffftReal implements RealFft {
     }
     const half = n >> 1;
     const rowsPer = Math.max(1, Math.floor(ROW_FLOATS / bins));
-    if (!this.rowsPtr) this.rowsPtr = this.m._pffft_aligned_malloc((rowsPer * bins + 2) * 4);
+    // + 8: room for the alignment float and for decibels() working on whole groups of four
+    if (!this.rowsPtr) this.rowsPtr = this.m._pffft_aligned_malloc((rowsPer * bins + 8) * 4);
     const c = win.spectralKernel;
     let w = 0;
     let c1 = 1;
@@ -213,6 +220,7 @@ class PffftReal implements RealFft {
         // rows start at the alignment mod 8 of their place in out (see row())
         const dst = this.rowsPtr + 4 * (((out.byteOffset >> 2) + to) & 1);
         k.frames(this.setup, this.batchPtr + g0 * hop * 4, hop * 4, g, this.outPtr, this.workPtr, w, this.inPtr, dst, half, c1, c0, scale, edgeScale);
+        if (decibels) k.decibels(dst, (g * bins + 3) & ~3);
         out.set(this.m.HEAPF32.subarray(dst >> 2, (dst >> 2) + g * bins), to);
       }
     }
@@ -419,9 +427,10 @@ class FftJsReal implements RealFft {
     for (let k = 1, j = 2; k < half; k++, j += 2) out[at + k] = (y[j] * y[j] + y[j + 1] * y[j + 1]) * scale;
   }
 
-  framesPower(x: Float32Array, start: number, hop: number, count: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number): void {
+  framesPower(x: Float32Array, start: number, hop: number, count: number, win: SpectralWindow, out: Float32Array, at: number, scale: number, edgeScale: number, decibels = false): void {
     const bins = (this.size >> 1) + 1;
     for (let f = 0; f < count; f++) this.framePower(x, start + f * hop, win, out, at + f * bins, scale, edgeScale);
+    if (decibels) powerToDecibels(out, at, at + count * bins);
   }
 
   dispose(): void {}

@@ -15,6 +15,8 @@ import { base64 as framePowerBase64 } from './kernels/frame-power.wasm';
 export interface FrameKernel {
   narrowPower(y: number, out: number, half: number, c1: number, c0: number, scale: number, edge: number): void;
   multiply(src: number, w: number, dst: number, n: number): void;
+  /** n floats at p (n mod 4 = 0) from mean-square power to 10·lg(max(x, 1e−30)) dB, in place. */
+  decibels(p: number, n: number): void;
   /** A batch of frames: transform (through PFFFT's own export) and readout in one call. */
   frames(
     setup: number, src: number, hop: number, count: number, y: number, work: number, w: number, tmp: number,

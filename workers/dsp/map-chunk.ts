@@ -26,27 +26,29 @@ export interface MapChunkResult {
   backend: string;
 }
 
-const engineOf = (fft: RealFft) => (fft.readout === 'wasm-kernel' ? `${fft.backend}+kernel` : fft.backend);
+export const engineOf = (fft: RealFft) => (fft.readout === 'wasm-kernel' ? `${fft.backend}+kernel` : fft.backend);
 
 /** The sample range frames [from, to) read: a worker is sent only these. */
 export function chunkSampleRange(layout: StftLayout, from: number, to: number): [number, number] {
   return [from * layout.hop, (to - 1) * layout.hop + layout.blockSize];
 }
 
-const cache = new Map<string, { fft: RealFft; win: SpectralWindow }>();
+// Promises, so chunks that arrive together while the first FFT is still loading share that one FFT.
+const cache = new Map<string, Promise<{ fft: RealFft; win: SpectralWindow }>>();
 
-async function tools(req: Pick<MapChunkRequest, 'settings' | 'backend'>) {
+/** The FFT and window for a request's settings, made once per thread and reused. */
+export function mapTools(req: Pick<MapChunkRequest, 'settings' | 'backend'>) {
   const key = `${req.settings.window}:${req.settings.blockSize}:${req.backend ?? 'auto'}`;
   let t = cache.get(key);
   if (!t) {
-    t = { fft: await createRealFft(req.settings.blockSize, req.backend ?? 'auto'), win: makeWindow(req.settings.window, req.settings.blockSize) };
+    t = createRealFft(req.settings.blockSize, req.backend ?? 'auto').then((fft) => ({ fft, win: makeWindow(req.settings.window, req.settings.blockSize) }));
     cache.set(key, t);
   }
   return t;
 }
 
 export async function computeMapChunk(req: MapChunkRequest): Promise<MapChunkResult> {
-  const { fft, win } = await tools(req);
+  const { fft, win } = await mapTools(req);
   const power = new Float32Array((req.to - req.from) * req.layout.bins);
   computeFrames(req.samples, req.x0, req.layout, win, fft, req.from, req.to, power);
   return { from: req.from, to: req.to, power, backend: engineOf(fft) };
@@ -57,7 +59,7 @@ export async function computeMapChunk(req: MapChunkRequest): Promise<MapChunkRes
  * samples in, none of the powers out.
  */
 export async function computeMapChunkShared(req: Omit<MapChunkRequest, 'x0'> & { map: Float32Array }): Promise<string> {
-  const { fft, win } = await tools(req);
+  const { fft, win } = await mapTools(req);
   computeFrames(req.samples, 0, req.layout, win, fft, req.from, req.to, req.map.subarray(req.from * req.layout.bins, req.to * req.layout.bins));
   return engineOf(fft);
 }

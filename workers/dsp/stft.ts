@@ -55,7 +55,8 @@ export const frameTimeS = (layout: StftLayout, frame: number) => layout.t0S + fr
 
 /**
  * Computes frames [from, to) into out (row-major, (to − from) × bins). `x` may be a slice of the channel
- * that starts at sample `x0` of it (a worker gets only the samples its frames need).
+ * that starts at sample `x0` of it (a worker gets only the samples its frames need). With `decibels`, the
+ * rows are levels 10·lg(power) (decibels.ts) instead of powers.
  */
 export function computeFrames(
   x: Float32Array,
@@ -66,11 +67,12 @@ export function computeFrames(
   from: number,
   to: number,
   out: Float32Array,
+  decibels = false,
 ): void {
   // mean square per bin: 2|X|²/(Σw)² inside, |X|²/(Σw)² at DC and Nyquist
   const inner = 2 / (win.sum * win.sum);
   const edge = 1 / (win.sum * win.sum);
-  if (to > from) fft.framesPower(x, from * layout.hop - x0, layout.hop, to - from, win, out, 0, inner, edge);
+  if (to > from) fft.framesPower(x, from * layout.hop - x0, layout.hop, to - from, win, out, 0, inner, edge, decibels);
 }
 
 /** Linear power average of frames [from, to) of a map: Welch's method [Welch 1967] when overlapping. */

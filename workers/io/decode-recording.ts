@@ -35,7 +35,7 @@ export async function sniffFormat(source: ByteSource): Promise<RecordingFormat> 
   throw new RecordingError('UNKNOWN_FORMAT', `${source.name} is none of the formats read here (WAV, CSV/TSV, MAT, HDF5, UFF 58).`);
 }
 
-function checkChannels(name: string, header: RecordingHeader, channels: number[]): void {
+export function checkChannels(name: string, header: RecordingHeader, channels: number[]): void {
   for (const c of channels) {
     if (!Number.isInteger(c) || c < 0 || c >= header.channels.length) {
       throw new RecordingError('BAD_CHANNEL', `${name} has ${header.channels.length} channels; there is no channel ${c + 1}.`);

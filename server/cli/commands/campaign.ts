@@ -71,10 +71,10 @@ export async function campaignCommand(inputs: string[], o: Options, signal: Abor
       const name = o.has('name') ? o.string('name') : `${path.basename(root)} ${new Date().toISOString().slice(0, 16).replace('T', ' ')}`;
       const forProject = tags ? Object.fromEntries(files.map((f) => relativeName(f, root)).filter((n) => tags[n]).map((n) => [n, tags[n]])) : undefined;
       await sync.start({ name, preset, total: files.length, ...(forProject ? { tags: forProject } : {}) });
-      // a rerun posts what the log already holds again: the project keeps one result per file
+      // a rerun posts what an earlier run wrote but could not post
       for (const f of files) {
         const r = log.results.get(f);
-        if (r) sync.post({ ...r, file: relativeName(f, root), ...(tags?.[relativeName(f, root)] ? { tags: tags[relativeName(f, root)] } : {}) });
+        if (r && !sync.hasPosted(relativeName(f, root))) sync.post({ ...r, file: relativeName(f, root), ...(tags?.[relativeName(f, root)] ? { tags: tags[relativeName(f, root)] } : {}) });
       }
     }
     let ok = 0;

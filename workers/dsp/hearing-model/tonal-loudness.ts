@@ -20,7 +20,7 @@
  *   [3] J. O. Smith, Spectral Audio Signal Processing (W3K, 2011), "Quadratic interpolation of
  *       spectral peaks".
  */
-import { type BandBlocks, fftPlan } from './band-blocks';
+import type { BandBlocks } from './band-blocks';
 import { BAND_CENTRES_HZ, HMS_FS_HZ, bandBandwidthHz, gammatoneTimeConstantS } from './filter-bank';
 
 /** Tonal and noise loudness of one band at its blocks' centres. */
@@ -42,6 +42,8 @@ const DECAY_TIME_CONSTANTS = 12;
  * The short blocks of the high bands (21 ms) alone leave noise a tonal fraction near 0.2.
  */
 export const SMOOTHING_S = 0.2;
+/** Lines of the K = 2N spectrum either side summed per output line (see the first pass below). */
+const KERNEL_REACH = 40;
 
 /**
  * Tonal and noise loudness of band `band` for each of its blocks, from its own blocks and its
@@ -67,20 +69,48 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
   const kLo = Math.max(1, Math.floor(((fc - bandwidth) * n) / HMS_FS_HZ));
   const kHi = Math.min(n / 2 - 1, Math.ceil(((fc + bandwidth) * n) / HMS_FS_HZ));
 
-  const inv = fftPlan(nfft);
-  const lagFft = fftPlan(n);
-  const sym = new Float64Array(nfft);
-  const acfSpec = inv.createComplexArray() as number[];
-  const seg = new Float64Array(n);
-  const segSpec = lagFft.createComplexArray() as number[];
-
   // First pass: each block's windowed-ACF spectrum over the searched bins (and one either side).
+  // With S the neighbour-averaged power spectrum of the zero-padded blocks (K = 2N lines) and
+  // r = IDFT(S) the ACF, the spectrum of h·r over lags L0 … L0 + M − 1 at line q (spacing fs/N) is
+  //   Y(q) = (1/K)·Σ_k S_k·e^(jπ·k·L0/N)·H((2q − k)/K),  H(ν) = Σ_i h_i·e^(−j2πiν),
+  // exact when summed over all k; H of a Hann window of M lags has fallen below −60 dB by
+  // |2q − k| = KERNEL_REACH, so only those lines are summed (two FFTs per block saved).
   const first = kLo - 1;
   const width = kHi - kLo + 3;
+  const reach = KERNEL_REACH;
+  const kernelRe = new Float64Array(2 * reach + 1);
+  const kernelIm = new Float64Array(2 * reach + 1);
+  for (let d = -reach; d <= reach; d++) {
+    let re = 0;
+    let im = 0;
+    for (let i = 0; i < m; i++) {
+      const ph = (2 * Math.PI * i * d) / nfft;
+      re += hann[i] * Math.cos(ph);
+      im -= hann[i] * Math.sin(ph);
+    }
+    kernelRe[d + reach] = re / nfft;
+    kernelIm[d + reach] = im / nfft;
+  }
+  const kMin = 2 * first - reach;
+  const kMax = 2 * (first + width - 1) + reach;
+  const span = kMax - kMin + 1;
+  const rotRe = new Float64Array(span);
+  const rotIm = new Float64Array(span);
+  const line = new Int32Array(span);
+  for (let j = 0; j < span; j++) {
+    const k = kMin + j;
+    rotRe[j] = Math.cos((Math.PI * k * lag0) / n);
+    rotIm[j] = Math.sin((Math.PI * k * lag0) / n);
+    // S is even and K-periodic: line k reads the stored line |k| folded into 0 … N.
+    const folded = ((k % nfft) + nfft) % nfft;
+    line[j] = folded > n ? nfft - folded : folded;
+  }
+  const sRe = new Float64Array(span);
+  const sIm = new Float64Array(span);
   const spectra = new Float64Array(own.count * width * 2);
   const lag0Values = new Float64Array(own.count);
   for (let k = 0; k < own.count; k++) {
-    sym.fill(0);
+    sRe.fill(0);
     let lag0Value = 0;
     for (const b of blocks) {
       const nl = b.loudness[k];
@@ -89,18 +119,31 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
       const w = (nl * nl) / b.energy[k] / blocks.length;
       lag0Value += (nl * nl) / blocks.length;
       const row = k * rowLength;
-      for (let i = 0; i <= n; i++) sym[i] += w * b.power[row + i];
+      for (let j = 0; j < span; j++) sRe[j] += w * b.power[row + line[j]];
     }
     lag0Values[k] = lag0Value;
     if (lag0Value === 0) continue;
-    for (let i = 1; i < n; i++) sym[nfft - i] = sym[i];
-    // A real even sequence: its forward transform is nfft times its inverse.
-    inv.realTransform(acfSpec, sym);
-    seg.fill(0);
-    for (let i = 0; i < m; i++) seg[i] = (hann[i] * acfSpec[2 * (lag0 + i)]) / nfft;
-    lagFft.realTransform(segSpec, seg);
+    for (let j = 0; j < span; j++) {
+      const v = sRe[j];
+      sRe[j] = v * rotRe[j];
+      sIm[j] = v * rotIm[j];
+    }
     const at = k * width * 2;
-    for (let i = 0; i < 2 * width; i++) spectra[at + i] = segSpec[2 * first + i];
+    for (let q = 0; q < width; q++) {
+      let yr = 0;
+      let yi = 0;
+      // k = 2q − d for d = −reach … reach, i.e. j = 2(first + q) − d − kMin.
+      const j0 = 2 * (first + q) - kMin;
+      for (let d = -reach; d <= reach; d++) {
+        const j = j0 - d;
+        const kr = kernelRe[d + reach];
+        const ki = kernelIm[d + reach];
+        yr += sRe[j] * kr - sIm[j] * ki;
+        yi += sRe[j] * ki + sIm[j] * kr;
+      }
+      spectra[at + 2 * q] = yr;
+      spectra[at + 2 * q + 1] = yi;
+    }
   }
 
   // Second pass: the moving average over SMOOTHING_S, then the peak.

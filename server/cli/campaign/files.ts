@@ -23,6 +23,8 @@ export interface CampaignFiles {
   files: string[];
   /** The folder file names are given relative to (the one DIR, else the caller's folder) */
   root: string;
+  /** True when root is the one DIR given (where a tags.csv belongs) */
+  rootIsDir: boolean;
 }
 
 export function collectFiles(inputs: string[], cwd: string, exclude: string[] = []): CampaignFiles {
@@ -45,7 +47,7 @@ export function collectFiles(inputs: string[], cwd: string, exclude: string[] = 
   const skip = new Set(exclude.map((f) => path.resolve(f)));
   const unique = [...new Set(files)].filter((f) => !skip.has(f));
   if (unique.length === 0) throw new UsageError(`No recordings (${RECORDING_EXTENSIONS.join(', ')}) in ${inputs.join(', ')}.`);
-  return { files: unique, root: dirs.length === 1 ? dirs[0] : cwd };
+  return { files: unique, root: dirs.length === 1 ? dirs[0] : cwd, rootIsDir: dirs.length === 1 };
 }
 
 /** A file's name as the results and the project show it: relative to the root when inside it. */

@@ -57,8 +57,8 @@ export async function campaignCommand(inputs: string[], o: Options, signal: Abor
   const queue = o.has('queue') ? checkRedisUrl(o.string('queue')).href : null;
   const target = projectTarget(o);
   const explicitTags = o.has('tags') ? path.resolve(cwd, o.string('tags')) : null;
-  const { files, root } = collectFiles(inputs, cwd, [out, presetFile, ...(explicitTags ? [explicitTags] : [])]);
-  const tagsFile = explicitTags ?? (existsSync(path.join(root, TAGS_FILE_NAME)) && root !== cwd ? path.join(root, TAGS_FILE_NAME) : null);
+  const { files, root, rootIsDir } = collectFiles(inputs, cwd, [out, presetFile, ...(explicitTags ? [explicitTags] : [])]);
+  const tagsFile = explicitTags ?? (rootIsDir && existsSync(path.join(root, TAGS_FILE_NAME)) ? path.join(root, TAGS_FILE_NAME) : null);
   const tags: FileTags | undefined = tagsFile ? readTagsCsv(tagsFile) : undefined;
 
   const log = new ResultsLog(out);

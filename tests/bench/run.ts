@@ -6,6 +6,7 @@ import { runCampaignBench } from './campaign-bench';
 import { runCompareBench } from './compare-bench';
 import { runDecodeBench } from './decode-bench';
 import { runExtractBench } from './extract-bench';
+import { runHearingModelBench } from './hearing-model-bench';
 import { runInverterBench } from './inverter-bench';
 import { runMapBench } from './map-bench';
 import { runPlaybackBench } from './playback-bench';
@@ -44,6 +45,9 @@ console.log('listening: Vold-Kalman playback blocks (workers/dsp):');
 const playback = runPlaybackBench(log);
 targets.push(`first playback block under 0.5 s: ${playback.firstBlockS < 0.5 ? 'met' : 'NOT met'}`);
 targets.push(`playback processing above 1.5× real time: ${playback.realTimeFactor > 1.5 ? 'met' : 'NOT met'} (${playback.realTimeFactor.toFixed(1)}×)`);
+console.log('hearing-model tonality, ECMA-418-2 (workers/dsp):');
+const hearing = runHearingModelBench(log);
+targets.push(`tonality of 20 s at 51.2 kHz under 20 s: ${hearing.bestS < 20 ? 'met' : 'NOT met'}`);
 console.log('the Bench (headless Chromium):');
 const bench = await runBrowserBench(log);
 if (bench) {

@@ -44,7 +44,7 @@ export function runCompareBench(log: (line: string) => void): { bestS: number } 
     const times: number[] = [];
     for (let i = 0; i < 3; i++) {
       const t0 = performance.now();
-      execFileSync(process.execPath, ['--import', 'tsx', 'server/cli/analyze.ts', 'compare', ...files, '--channel', '0', '--tacho', '1', '--ppr', '60', '--orders', '8,48'], {
+      execFileSync(process.execPath, ['server/cli/analyze-launch.mjs', 'compare', ...files, '--channel', '0', '--tacho', '1', '--ppr', '60', '--orders', '8,48'], {
         cwd: PROJECT_ROOT,
         stdio: ['ignore', 'ignore', 'inherit'],
       });

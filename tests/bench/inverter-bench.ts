@@ -36,7 +36,7 @@ export function runInverterBench(log: (line: string) => void): { bestS: number }
     const times: number[] = [];
     for (let i = 0; i < 3; i++) {
       const t0 = performance.now();
-      execFileSync(process.execPath, ['--import', 'tsx', 'server/cli/analyze.ts', 'inverter', file, '--channel', '0', '--tacho', '1', '--ppr', '60', '--orders', '8,48'], {
+      execFileSync(process.execPath, ['server/cli/analyze-launch.mjs', 'inverter', file, '--channel', '0', '--tacho', '1', '--ppr', '60', '--orders', '8,48'], {
         cwd: PROJECT_ROOT,
         stdio: ['ignore', 'ignore', 'inherit'],
       });

@@ -7,7 +7,10 @@
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import { Queue } from 'bullmq';
+import { Redis } from 'ioredis';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { QUEUE_NAME } from '../../../server/cli/campaign/redis-connection';
 import { readResults, startAnalyze, startWorker } from '../../support/campaign-cli';
 import { medianCarrier, RUN_UP_PRESET, writeRunUp } from '../../support/campaign-run-ups';
 import { REDIS_SERVER, redisServerInstalled, startTestRedis, type TestRedis } from '../../support/private-redis';
@@ -69,9 +72,16 @@ describe.skipIf(!installed)('analyze campaign --queue', () => {
       expect(Math.abs(medianCarrier(line.inverter!.carrier.hz) - fc) / fc, line.file).toBeLessThan(0.01);
     }
     expect(lines.find((l) => l.file.endsWith(CORRUPT))).toMatchObject({ ok: false, error: expect.stringMatching(/^broken\.wav /) });
-    // a final failure: taken once, by one worker, not retried
-    const v = await victim.done;
-    const starts = `${v.stderr}\n${s.stderr}`.split('\n').filter((l) => l === `analyze-worker: start ${path.join(dir, 'runs', CORRUPT)}`);
-    expect(starts).toHaveLength(killedWhileOn.endsWith(CORRUPT) ? 2 : 1);
+    // a final failure (UnrecoverableError): one attempt, not the 3 a passing error would get
+    const connection = new Redis(redis.url, { maxRetriesPerRequest: null });
+    const queue = new Queue(QUEUE_NAME, { connection });
+    try {
+      const failedJobs = await queue.getFailed();
+      expect(failedJobs.map((j) => [path.basename(j.data.file), j.attemptsMade])).toEqual([[CORRUPT, 1]]);
+      expect(failedJobs[0].failedReason).toMatch(/^broken\.wav /);
+    } finally {
+      await queue.close();
+      connection.disconnect();
+    }
   }, 90_000);
 });

@@ -122,6 +122,16 @@ describe('findTones', () => {
     expect(findTones(p, binHz, 1)).toHaveLength(1);
   });
 
+  it("does not take a strong tone's window side lobes for tones", async () => {
+    // A 90 dB tone half-way between lines over noise 80 dB lower per line: the Hann side lobes
+    // (−31.5 dB at 2.5 lines, Harris 1978) rise far above the noise but are the tone's leakage; they
+    // fill the critical band's mean level L_S, so none stands 10 dB above it.
+    const { p, binHz } = await welch(tonesInWhiteNoise(4, P0 * P0, [[(1000.5 * FS) / 16384, 90]], 5), 16384);
+    const tones = findTones(p, binHz, 5);
+    expect(tones).toHaveLength(1);
+    expect(tones[0] / binHz).toBeCloseTo(1000.5, 1);
+  });
+
   it('finds nothing in white noise alone', async () => {
     const { p, binHz } = await welch(tonesInWhiteNoise(10, P0 * P0 * 1e3, [], 4), 16384);
     expect(findTones(p, binHz, 5)).toEqual([]);

@@ -7,7 +7,8 @@
 import { readSync, writeSync } from 'node:fs';
 import { parentPort } from 'node:worker_threads';
 import type { WavLayout } from '../../workers/io/recording';
-import { decodeWavChannel } from '../../workers/io/wav-samples';
+import { isFloat } from '../../workers/io/wav-header';
+import { decodeWavChannel, replaceNonFinite } from '../../workers/io/wav-samples';
 import { chunkSampleRange, computeMapChunkShared, engineOf, mapTools, type MapChunkRequest } from '../../workers/dsp/map-chunk';
 import { computeFrames } from '../../workers/dsp/stft';
 
@@ -40,20 +41,30 @@ function writeRows(fd: number, data: Float32Array, position: number): void {
   for (let done = 0; done < view.length; ) done += writeSync(fd, view, done, view.length - done, position + done);
 }
 
-/** Samples [first, first + n) of the channel, read from the file. */
-function readWav(w: WavChannelInput, first: number, n: number): Float32Array {
-  const length = n * w.layout.blockAlign;
-  if (bytes.length < length) bytes = new Uint8Array(length);
-  const at = w.layout.dataOffset + first * w.layout.blockAlign;
-  let done = 0;
-  while (done < length) {
-    const got = readSync(w.fd, bytes, done, length - done, at + done);
+function readFully(w: WavChannelInput, into: Uint8Array, at: number): void {
+  for (let done = 0; done < into.length; ) {
+    const got = readSync(w.fd, into, done, into.length - done, at + done);
     if (got === 0) throw new Error(`${w.fileName}: only ${done} bytes could be read at byte offset ${at}.`);
     done += got;
   }
+}
+
+/** Samples [first, first + n) of the channel, read from the file. */
+function readWav(w: WavChannelInput, first: number, n: number): Float32Array {
   if (samples.length < n) samples = new Float32Array(n);
   const x = samples.subarray(0, n);
-  decodeWavChannel(bytes, w.layout, w.channelCount, w.channel, n, x, 0, { channel: w.channel, count: 0, firstFrame: -1 });
+  const at = w.layout.dataOffset + first * w.layout.blockAlign;
+  const bad = { channel: w.channel, count: 0, firstFrame: -1 };
+  if (w.channelCount === 1 && w.layout.blockAlign === 4 && isFloat(w.layout)) {
+    // One float32 channel is the file's bytes as they are: read them straight into the samples.
+    readFully(w, new Uint8Array(x.buffer, x.byteOffset, x.byteLength), at);
+    replaceNonFinite(x, 0, n, bad);
+  } else {
+    const length = n * w.layout.blockAlign;
+    if (bytes.length < length) bytes = new Uint8Array(length);
+    readFully(w, bytes.subarray(0, length), at);
+    decodeWavChannel(bytes, w.layout, w.channelCount, w.channel, n, x, 0, bad);
+  }
   if (w.cal !== 1) for (let i = 0; i < n; i++) x[i] *= w.cal;
   return x;
 }

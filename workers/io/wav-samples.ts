@@ -114,13 +114,7 @@ function decodeFloat(
     // One float32 channel: a block copy, then a read-only pass for NaN/±Inf (x − x is 0 only when finite),
     // several times faster than converting sample by sample into shared memory.
     dst.set(v.subarray(0, n), start);
-    for (let i = start, end = start + n; i < end; i++) {
-      const x = dst[i];
-      if (x - x !== 0) {
-        dst[i] = 0;
-        if (bad.count++ === 0) bad.firstFrame = i;
-      }
-    }
+    replaceNonFinite(dst, start, start + n, bad);
     return;
   }
   for (let i = 0, j = ch; i < n; i++, j += stride) {
@@ -129,6 +123,17 @@ function decodeFloat(
     else {
       dst[start + i] = 0;
       if (bad.count++ === 0) bad.firstFrame = start + i;
+    }
+  }
+}
+
+/** NaN and ±Inf in x[from…to) set to 0 and counted (x − x is 0 only for a finite x). */
+export function replaceNonFinite(x: Float32Array, from: number, to: number, bad: NonFiniteReport): void {
+  for (let i = from; i < to; i++) {
+    const v = x[i];
+    if (v - v !== 0) {
+      x[i] = 0;
+      if (bad.count++ === 0) bad.firstFrame = i;
     }
   }
 }

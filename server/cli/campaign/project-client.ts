@@ -62,13 +62,13 @@ export class ProjectClient {
         } catch {
           // not JSON: the text itself
         }
-        failure = `${res.status} ${message}`;
+        failure = `${res.status} ${message.replace(/\.$/, '')}`;
         if (res.status < 500) throw new ProjectError(`The server refused ${url.replace(this.base, 'the campaign')}: ${failure}.`);
       } catch (e) {
         if (e instanceof ProjectError) throw e;
         failure = res ? failure! : (e as Error).message;
       }
-      if (attempt >= this.retry.attempts) throw new ProjectError(`The server did not take ${url} after ${attempt} tries (${failure}).`);
+      if (attempt >= this.retry.attempts) throw new Error(`The server did not take ${url} after ${attempt} tries (${failure}).`);
       await sleep(delay);
       delay *= 2;
     }
@@ -84,4 +84,5 @@ export class ProjectClient {
   }
 }
 
-export class ProjectError extends Error {}
+/** The server said no (4xx: a revoked or expired token, no access, a bad field): bad input, exit 2. */
+export class ProjectError extends UsageError {}

@@ -32,7 +32,10 @@ const server = createServer((req, res) => {
     const body = text ? (JSON.parse(text) as Record<string, unknown>) : {};
     let status = 404;
     let answer: unknown = { error: { code: 'NOT_FOUND', message: 'Not found.' } };
-    if (req.method === 'POST' && req.url === '/api/projects/7/campaigns') {
+    if (req.headers.authorization !== `Bearer ${TOKEN}`) {
+      status = 401;
+      answer = { error: { code: 'TOKEN_INVALID', message: 'This token is revoked, expired or unknown.' } };
+    } else if (req.method === 'POST' && req.url === '/api/projects/7/campaigns') {
       status = 201;
       answer = { campaign: { id: 42, name: body.name, preset: body.preset, total: body.total, done: 0, failed: 0 } };
     } else if (req.method === 'POST' && req.url === '/api/projects/7/campaigns/42/results') {
@@ -115,5 +118,15 @@ describe('analyze campaign registered with a project', () => {
     const r = await runAnalyze([...args().slice(0, -1), 'secret']);
     expect(r.code).toBe(2);
     expect(r.stderr).toContain('--token must be a personal API token');
+  });
+
+  it('stops with the server’s sentence when it refuses the token (401, exit 2), without trying again', async () => {
+    const before = seen.length;
+    const revoked = `flt_${'R'.repeat(43)}`;
+    const out = path.join(dir, 'revoked.jsonl');
+    const r = await runAnalyze([...args().slice(0, -1), revoked].map((a) => (a.endsWith('results.jsonl') ? out : a)));
+    expect(r.code).toBe(2);
+    expect(r.stderr.trim()).toBe('The server refused the campaign: 401 This token is revoked, expired or unknown.');
+    expect(seen.slice(before).map((s) => [s.url, s.status])).toEqual([['/api/projects/7/campaigns', 401]]);
   });
 });

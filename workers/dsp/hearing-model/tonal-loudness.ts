@@ -12,7 +12,8 @@
  *   at most a quarter block) and half a block long, Hann-weighted.
  * - 6.2.5: a tone leaves a cosine of undamped amplitude N_t'² in the windowed ACF; the peak of its
  *   spectrum within ±Δf of the band centre gives N_t'² (2·|peak|/Σw) and the tonal frequency
- *   (parabolic interpolation of the log magnitude [3]); the rest of N'² is the noise part.
+ *   (parabolic interpolation of the log magnitude [3]); the rest of N'² is the noise part. Both are
+ *   then averaged over SMOOTHING_S (the frequency weighted by N_t'²).
  *
  * References:
  *   [1] ECMA-418-2, 2nd edition, December 2022, clauses 6.2.2–6.2.5.
@@ -37,9 +38,10 @@ export interface BandTonalLoudness {
 /** Lags (samples) a noise's ACF needs to decay: 12 time constants of the band's gammatone (Fanlight's choice). */
 const DECAY_TIME_CONSTANTS = 12;
 /**
- * Span (s) over which the windowed ACFs of consecutive blocks are averaged before the peak is read
- * (Fanlight's choice): a noise's random long-lag correlation averages out, a steady tone's does not.
- * The short blocks of the high bands (21 ms) alone leave noise a tonal fraction near 0.2.
+ * Span (s) over which the blocks' tonal and total loudness are averaged (Fanlight's choice): the
+ * short blocks of the high bands (21 ms) alone leave noise a widely scattered tonal fraction, and
+ * averaging narrows it. Averaged after the peak is read, not before, so a tone sweeping through a
+ * run-up keeps its full tonal loudness.
  */
 export const SMOOTHING_S = 0.2;
 /** Lines of the K = 2N spectrum either side summed per output line (see the first pass below). */
@@ -107,7 +109,9 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
   }
   const sRe = new Float64Array(span);
   const sIm = new Float64Array(span);
-  const spectra = new Float64Array(own.count * width * 2);
+  const y = new Float64Array(width * 2);
+  const tonalSquares = new Float64Array(own.count);
+  const freqs = new Float64Array(own.count).fill(fc);
   const lag0Values = new Float64Array(own.count);
   for (let k = 0; k < own.count; k++) {
     sRe.fill(0);
@@ -128,7 +132,6 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
       sRe[j] = v * rotRe[j];
       sIm[j] = v * rotIm[j];
     }
-    const at = k * width * 2;
     for (let q = 0; q < width; q++) {
       let yr = 0;
       let yi = 0;
@@ -141,15 +144,19 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
         yr += sRe[j] * kr - sIm[j] * ki;
         yi += sRe[j] * ki + sIm[j] * kr;
       }
-      spectra[at + 2 * q] = yr;
-      spectra[at + 2 * q + 1] = yi;
+      y[2 * q] = yr;
+      y[2 * q + 1] = yi;
     }
+    const peak = spectrumPeak(y, width);
+    tonalSquares[k] = Math.min(lag0Value, (2 * peak.magnitude) / taperedSum);
+    freqs[k] = ((first + peak.line) * HMS_FS_HZ) / n;
   }
 
-  // Second pass: the moving average over SMOOTHING_S, then the peak.
+  // Second pass: moving averages over SMOOTHING_S of N_t'² and N'², and of the frequency weighted by N_t'².
   const half = Math.max(0, Math.round(SMOOTHING_S / 2 / (own.hop / HMS_FS_HZ)));
-  const sum = new Float64Array(width * 2);
+  let sumTonal = 0;
   let sumLag0 = 0;
+  let sumFreq = 0;
   let lo = 0;
   let hi = -1;
   const result: BandTonalLoudness = {
@@ -163,36 +170,42 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
     const wantLo = Math.max(0, k - half);
     while (hi < wantHi) {
       hi++;
+      sumTonal += tonalSquares[hi];
       sumLag0 += lag0Values[hi];
-      for (let i = 0; i < 2 * width; i++) sum[i] += spectra[hi * width * 2 + i];
+      sumFreq += tonalSquares[hi] * freqs[hi];
     }
     while (lo < wantLo) {
+      sumTonal -= tonalSquares[lo];
       sumLag0 -= lag0Values[lo];
-      for (let i = 0; i < 2 * width; i++) sum[i] -= spectra[lo * width * 2 + i];
+      sumFreq -= tonalSquares[lo] * freqs[lo];
       lo++;
     }
     const blocksIn = hi - lo + 1;
     const lag0Value = sumLag0 / blocksIn;
     if (!(lag0Value > 0)) continue;
-    let best = 1;
-    let bestMag = -1;
-    for (let i = 1; i < width - 1; i++) {
-      const mag = Math.hypot(sum[2 * i], sum[2 * i + 1]);
-      if (mag > bestMag) {
-        bestMag = mag;
-        best = i;
-      }
-    }
-    const a = Math.log(Math.hypot(sum[2 * best - 2], sum[2 * best - 1]) + 1e-300);
-    const b = Math.log(bestMag + 1e-300);
-    const c = Math.log(Math.hypot(sum[2 * best + 2], sum[2 * best + 3]) + 1e-300);
-    const den = a - 2 * b + c;
-    const delta = den < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a - c)) / den)) : 0;
-    const peak = Math.exp(b - 0.25 * (a - c) * delta) / blocksIn;
-    const tonalSquare = Math.min(lag0Value, (2 * peak) / taperedSum);
+    const tonalSquare = Math.max(0, Math.min(lag0Value, sumTonal / blocksIn));
     result.tonal[k] = Math.sqrt(tonalSquare);
     result.noise[k] = Math.sqrt(lag0Value - tonalSquare);
-    result.tonalHz[k] = ((first + best + delta) * HMS_FS_HZ) / n;
+    if (sumTonal > 0) result.tonalHz[k] = sumFreq / sumTonal;
   }
   return result;
+}
+
+/** Largest magnitude of lines 1 … width − 2 of interleaved y, refined by quadratic interpolation of the log magnitude [3]. */
+function spectrumPeak(y: Float64Array, width: number): { line: number; magnitude: number } {
+  let best = 1;
+  let bestMag = -1;
+  for (let i = 1; i < width - 1; i++) {
+    const mag = Math.hypot(y[2 * i], y[2 * i + 1]);
+    if (mag > bestMag) {
+      bestMag = mag;
+      best = i;
+    }
+  }
+  const a = Math.log(Math.hypot(y[2 * best - 2], y[2 * best - 1]) + 1e-300);
+  const b = Math.log(bestMag + 1e-300);
+  const c = Math.log(Math.hypot(y[2 * best + 2], y[2 * best + 3]) + 1e-300);
+  const den = a - 2 * b + c;
+  const delta = den < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a - c)) / den)) : 0;
+  return { line: best + delta, magnitude: Math.exp(b - 0.25 * (a - c) * delta) };
 }

@@ -5,6 +5,7 @@
  * References:
  *   [1] ECMA-418-2, 2nd edition, December 2022, clauses 6.2.6–6.2.7.
  */
+import { BAND_CENTRES_HZ, HMS_FS_HZ, bandBandwidthHz, bandBlockSize } from './filter-bank';
 
 /**
  * Values given at ascending times `at` → values at times `grid`, linear in between and held at the
@@ -33,24 +34,36 @@ export function interpolateOnGrid(at: Float64Array, values: Float64Array, grid: 
 }
 
 /**
- * Tonal fraction that noise alone leaves in the (smoothed) windowed ACF of a band, by block size:
- * finite blocks leave random correlation at long lags. Set a little above the 99.5th percentile
- * measured on 10 s of seeded white and pink noise at 60 dB (tests/fixtures/hearing-model/
- * measure-noise-floor.ts: 0.233/0.246, 0.200/0.195, 0.144/0.158, 0.085/0.089), so noise alone
- * rarely leaves any tonality. The standard's own noise-reduction formula of clause 6.2.7 is not
- * recalled; this takes its place.
+ * Tonal fraction r₀ that noise alone leaves in band b's tonal loudness: finite blocks leave random
+ * correlation at long lags, the more the smaller the band's time–bandwidth product B·T (B the band's
+ * Δf, T its block). Measured on 6 s of seeded white and pink noise at 60 dB
+ * (tests/fixtures/hearing-model/measure-noise-floor.ts), the mean fraction follows ≈ 1.1·(B·T)^−0.75
+ * and its 99.5th percentile stays under K·(B·T)^−0.75 with K = 2.11, 1.74, 1.54, 1.31 for blocks of
+ * 8192, 4096, 2048, 1024 samples (fewer blocks averaged in SMOOTHING_S widen the spread), and under
+ * 0.09 in the top bands. r₀ takes those bounds with a little margin, so noise alone rarely leaves
+ * tonality. The standard's own noise-reduction formula of clause 6.2.7 is not recalled; this takes
+ * its place.
  */
-const NOISE_TONAL_FRACTION: Readonly<Record<number, number>> = { 8192: 0.26, 4096: 0.21, 2048: 0.17, 1024: 0.1 };
+const NOISE_BOUND_FACTOR: Readonly<Record<number, number>> = { 8192: 2.2, 4096: 1.8, 2048: 1.6, 1024: 1.35 };
+const NOISE_BOUND_FLOOR = 0.09;
+
+/** r₀ of band b (see above). */
+export function noiseTonalFraction(band: number): number {
+  const n = bandBlockSize(band);
+  const bt = (bandBandwidthHz(BAND_CENTRES_HZ[band]) * n) / HMS_FS_HZ;
+  return Math.min(0.9, Math.max(NOISE_BOUND_FLOOR, NOISE_BOUND_FACTOR[n] * bt ** -0.75));
+}
 
 /**
  * Noise reduction, clause 6.2.7 [1] (Fanlight's form): the tonal fraction r = N_t'²/(N_t'² + N_n'²)
  * is moved so noise alone gives 0 and a pure tone 1, r' = max(0, (r − r₀)/(1 − r₀)), and the tonal
  * loudness becomes √(r'·(N_t'² + N_n'²)).
+ *
+ * @param r0  the band's {@link noiseTonalFraction}
  */
-export function noiseReducedTonalLoudness(tonal: number, noise: number, blockSize: number): number {
+export function noiseReducedTonalLoudness(tonal: number, noise: number, r0: number): number {
   const total = tonal * tonal + noise * noise;
   if (!(total > 0)) return 0;
-  const r0 = NOISE_TONAL_FRACTION[blockSize] ?? 0;
   const r = (tonal * tonal) / total;
   const reduced = Math.max(0, (r - r0) / (1 - r0));
   return Math.sqrt(reduced * total);

@@ -27,7 +27,7 @@ import { BAND_CENTRES_HZ, BAND_COUNT, bandBlockSize, filterBand } from './filter
 import { thresholdSpecificLoudness } from './nonlinearity';
 import { resampleTo48k } from './resample';
 import { bandTonalLoudness } from './tonal-loudness';
-import { interpolateOnGrid, noiseReducedTonalLoudness } from './tonality-time';
+import { interpolateOnGrid, noiseReducedTonalLoudness, noiseTonalFraction } from './tonality-time';
 
 /** Result of {@link hearingModelTonality}. */
 export interface HearingModelTonality {
@@ -144,8 +144,9 @@ export function hearingModelTonality(samplesPa: Float32Array | Float64Array, sam
     const tonal = interpolateOnGrid(loudness.centresS, loudness.tonal, t);
     const noise = interpolateOnGrid(loudness.centresS, loudness.noise, t);
     const freq = interpolateOnGrid(loudness.centresS, loudness.tonalHz, t);
+    const r0 = noiseTonalFraction(band);
     for (let l = 0; l < gridCount; l++) {
-      specific[l] = TONALITY_CALIBRATION * noiseReducedTonalLoudness(tonal[l], noise[l], blockSize);
+      specific[l] = TONALITY_CALIBRATION * noiseReducedTonalLoudness(tonal[l], noise[l], r0);
       // 6.2.10: the time-dependent tonality is the largest specific tonality, at that band's frequency.
       if (specific[l] > tu[l]) {
         tu[l] = specific[l];

@@ -69,6 +69,30 @@ describe('hearingModelTonality (ECMA-418-2 clause 6)', () => {
   );
 
   it(
+    'follows a tone sweeping through a run-up in frequency and keeps its tonality',
+    () => {
+      // A linear chirp 2 → 5 kHz over 3 s at 60 dB in pink noise at 55 dB: its instantaneous frequency
+      // is 2000 + 1000·t Hz (the phase's derivative). A steady 60 dB tone at 3.5 kHz is the comparison.
+      const seconds = 3;
+      let phase = 0;
+      const amp = 20e-6 * Math.SQRT2 * 1000;
+      const chirp = Float64Array.from({ length: seconds * FS }, (_, i) => {
+        phase += (2 * Math.PI * (2000 + (1000 * i) / FS)) / FS;
+        return amp * Math.sin(phase);
+      });
+      const noise = atLevel(pinkNoise(seconds * FS, FS, 21), 55);
+      const r = hearingModelTonality(sum(noise, chirp), FS);
+      const steady = hearingModelTonality(sum(noise, sinePa(3500, 60, seconds, FS)), FS).averageTu;
+      for (const ts of [0.5, 1.5, 2.5]) {
+        const l = Math.round((ts * FS) / 256);
+        expect(Math.abs(r.tonalHz[l] / (2000 + 1000 * ts) - 1)).toBeLessThan(0.01);
+        expect(r.tu[l]).toBeGreaterThan(0.75 * steady);
+      }
+    },
+    SLOW,
+  );
+
+  it(
     'gives pure white and pink noise little tonality',
     () => {
       // Noise has no undamped correlation at long lags; what the finite blocks leave is removed by the

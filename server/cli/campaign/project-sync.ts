@@ -6,6 +6,7 @@
  * campaign goes on.
  */
 import { appendFileSync, existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { fitInverter } from './fit-inverter';
 import { ProjectClient, type CampaignResultPost, type FileTags, type ProjectTarget } from './project-client';
 
 interface Sidecar {
@@ -57,8 +58,9 @@ export class ProjectSync {
 
   /** Queues one result's post; posts go out one at a time, in the order the results were written. */
   post(result: CampaignResultPost): void {
+    const fitted = result.inverter === undefined ? result : { ...result, inverter: fitInverter(result.inverter) };
     this.chain = this.chain.then(() =>
-      this.client.postResult(this.campaignId, result).then(
+      this.client.postResult(this.campaignId, fitted).then(
         () => {
           this.posted.add(result.file);
           appendFileSync(this.postedPath, `${result.file}\n`);

@@ -9,8 +9,12 @@ import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { collectFiles, relativeName } from '../../../server/cli/campaign/files';
 import { parsePreset, presetOptions } from '../../../server/cli/campaign/preset';
+import { analyseOne } from '../../../server/cli/campaign/analyse-one';
+import { fitInverter, thinTracks } from '../../../server/cli/campaign/fit-inverter';
 import { ResultsLog } from '../../../server/cli/campaign/results-log';
 import { readTagsCsv } from '../../../server/cli/campaign/tags-csv';
+import { MapThreadPool } from '../../../server/cli/thread-pool';
+import { RUN_UP_PRESET, writeRunUp } from '../../support/campaign-run-ups';
 
 const dir = mkdtempSync(path.join(tmpdir(), 'fanlight-campaign-parts-'));
 
@@ -61,5 +65,35 @@ describe('files and tags', () => {
     expect(readTagsCsv(tags)).toEqual({ 'run-1.wav': { firmware: 'A', note: 'full load, hot' }, 'sub/run-2.wav': { firmware: 'B', note: '' } });
     writeFileSync(tags, 'file,firmware,note\nrun-1.wav,A\n');
     expect(() => readTagsCsv(tags)).toThrow(`${tags} line 2: 2 fields where the header has 3.`);
+  });
+});
+
+describe('fitInverter', () => {
+  it('thins a long report’s tracks by the smallest k that fits, keeping whole-run findings and the ends', async () => {
+    const file = path.join(dir, 'fit.wav');
+    writeRunUp(file, 5000);
+    const pool = new MapThreadPool(1);
+    const outcome = await analyseOne(file, presetOptions(parsePreset(RUN_UP_PRESET, 'preset')), pool).finally(() => pool.close());
+    if (!outcome.ok) throw new Error(outcome.error);
+    type Track = { rpm: number[]; rms: number[] };
+    type Report = Record<string, unknown> & { families: Track[]; carrier: { t: number[]; hz: number[] }; thinnedBy?: number };
+    const inverter = outcome.inverter as Report;
+    const size = Buffer.byteLength(JSON.stringify(inverter));
+    const limit = Math.floor(size / 2.5);
+    const fitted = fitInverter(inverter, limit) as Report;
+    expect(Buffer.byteLength(JSON.stringify(fitted))).toBeLessThanOrEqual(limit);
+    const k = fitted.thinnedBy!;
+    // the smallest k: one less does not fit (and a report that fits is posted whole)
+    expect(k).toBeGreaterThanOrEqual(2);
+    if (k > 2) expect(Buffer.byteLength(JSON.stringify({ ...(thinTracks(inverter, k - 1) as object), thinnedBy: k - 1 }))).toBeGreaterThan(limit);
+    expect(fitInverter(inverter, size)).toBe(inverter);
+    // every kept point is the original's point i·k (and the last one)
+    const f0 = inverter.families[0];
+    const g0 = fitted.families[0];
+    const kept = f0.rpm.map((_: number, i: number) => i).filter((i: number) => i % k === 0 || i === f0.rpm.length - 1);
+    expect(g0.rpm).toEqual(kept.map((i: number) => f0.rpm[i]));
+    expect(g0.rms).toEqual(kept.map((i: number) => f0.rms[i]));
+    expect(fitted.carrier.t.length).toBe(fitted.carrier.hz.length);
+    for (const key of ['carrierShifts', 'carrierSpreadHz', 'polePairs', 'strongestFamilies', 'tonality']) expect(fitted[key]).toEqual(inverter[key]);
   });
 });

@@ -24,7 +24,9 @@ export interface BandBlocks {
   energy: Float64Array;
   /** Specific loudness N' of each block (sone_HMS per Bark_HMS). */
   loudness: Float64Array;
-  /** |U[k]|² of each zero-padded block, k = 0 … blockSize, row after row (blockSize + 1 values a row). */
+  /** First and last spectrum line kept (the lines the tonality reads; all others are dropped to save memory). */
+  lines: [number, number];
+  /** |U[k]|² of each zero-padded block for k = lines[0] … lines[1], row after row. */
   power: Float32Array;
 }
 
@@ -51,12 +53,19 @@ export function blockCount(length: number, n: number, hop: number): number {
  * @param u                  band signal at 48 kHz (Pa)
  * @param blockSize          block length (samples), a power of two
  * @param thresholdLoudness  the band's specific loudness at the threshold in quiet
+ * @param lines              first and last line (0 … blockSize) of the spectra to keep
  */
-export function segmentBand(u: Float64Array, blockSize: number, thresholdLoudness: number): BandBlocks {
+export function segmentBand(
+  u: Float64Array,
+  blockSize: number,
+  thresholdLoudness: number,
+  lines: [number, number] = [0, blockSize],
+): BandBlocks {
   const hop = blockSize / 4;
   const count = blockCount(u.length, blockSize, hop);
   const nfft = 2 * blockSize;
-  const rowLength = blockSize + 1;
+  const [firstLine, lastLine] = lines;
+  const rowLength = lastLine - firstLine + 1;
   const fft = fftPlan(nfft);
   const buf = new Float64Array(nfft);
   const spec = fft.createComplexArray() as number[];
@@ -67,6 +76,7 @@ export function segmentBand(u: Float64Array, blockSize: number, thresholdLoudnes
     centresS: new Float64Array(count),
     energy: new Float64Array(count),
     loudness: new Float64Array(count),
+    lines: [firstLine, lastLine],
     power: new Float32Array(count * rowLength),
   };
   for (let k = 0; k < count; k++) {
@@ -84,10 +94,10 @@ export function segmentBand(u: Float64Array, blockSize: number, thresholdLoudnes
     out.loudness[k] = specificLoudness(rectifiedRms(u, start, blockSize), thresholdLoudness);
     fft.realTransform(spec, buf);
     const row = k * rowLength;
-    for (let i = 0; i <= blockSize; i++) {
+    for (let i = firstLine; i <= lastLine; i++) {
       const re = spec[2 * i];
       const im = spec[2 * i + 1];
-      out.power[row + i] = re * re + im * im;
+      out.power[row + i - firstLine] = re * re + im * im;
     }
   }
   return out;

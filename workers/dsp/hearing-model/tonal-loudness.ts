@@ -47,6 +47,38 @@ export const SMOOTHING_S = 0.2;
 /** Lines of the K = 2N spectrum either side summed per output line (see the first pass below). */
 const KERNEL_REACH = 40;
 
+/** The windowed-ACF spectrum lines searched for band b's tone with blocks of n samples (spacing fs/n), and one either side. */
+function searchedLines(band: number, n: number): { first: number; width: number } {
+  const fc = BAND_CENTRES_HZ[band];
+  const bandwidth = bandBandwidthHz(fc);
+  const kLo = Math.max(1, Math.floor(((fc - bandwidth) * n) / HMS_FS_HZ));
+  const kHi = Math.min(n / 2 - 1, Math.ceil(((fc + bandwidth) * n) / HMS_FS_HZ));
+  return { first: kLo - 1, width: kHi - kLo + 3 };
+}
+
+/** Line k of the K = 2n-line spectrum folded onto the stored lines 0 … n (the spectrum is even and K-periodic). */
+function foldLine(k: number, n: number): number {
+  const nfft = 2 * n;
+  const folded = ((k % nfft) + nfft) % nfft;
+  return folded > n ? nfft - folded : folded;
+}
+
+/**
+ * First and last block-spectrum line (0 … n) that {@link bandTonalLoudness} reads for band b with
+ * blocks of n samples: the segmentation keeps only these.
+ */
+export function linesRead(band: number, n: number): [number, number] {
+  const { first, width } = searchedLines(band, n);
+  let lo = n;
+  let hi = 0;
+  for (let k = 2 * first - KERNEL_REACH; k <= 2 * (first + width - 1) + KERNEL_REACH; k++) {
+    const line = foldLine(k, n);
+    lo = Math.min(lo, line);
+    hi = Math.max(hi, line);
+  }
+  return [lo, hi];
+}
+
 /**
  * Tonal and noise loudness of band `band` for each of its blocks, from its own blocks and its
  * neighbours' blocks under the same segmentation ({@link BandBlocks}, same blockSize and hop).
@@ -55,7 +87,6 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
   const own = blocks[0];
   const n = own.blockSize;
   const nfft = 2 * n;
-  const rowLength = n + 1;
   const fc = BAND_CENTRES_HZ[band];
   const bandwidth = bandBandwidthHz(fc);
   const lag0 = Math.min(n / 4, Math.ceil(DECAY_TIME_CONSTANTS * gammatoneTimeConstantS(bandwidth) * HMS_FS_HZ));
@@ -67,9 +98,6 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
     hann[i] = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / m);
     taperedSum += (hann[i] * (n - lag0 - i)) / n;
   }
-  // Spectrum bins of the windowed ACF (length n, bin spacing fs/n) searched for the tone.
-  const kLo = Math.max(1, Math.floor(((fc - bandwidth) * n) / HMS_FS_HZ));
-  const kHi = Math.min(n / 2 - 1, Math.ceil(((fc + bandwidth) * n) / HMS_FS_HZ));
 
   // First pass: each block's windowed-ACF spectrum over the searched bins (and one either side).
   // With S the neighbour-averaged power spectrum of the zero-padded blocks (K = 2N lines) and
@@ -77,8 +105,7 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
   //   Y(q) = (1/K)·Σ_k S_k·e^(jπ·k·L0/N)·H((2q − k)/K),  H(ν) = Σ_i h_i·e^(−j2πiν),
   // exact when summed over all k; H of a Hann window of M lags has fallen below −60 dB by
   // |2q − k| = KERNEL_REACH, so only those lines are summed (two FFTs per block saved).
-  const first = kLo - 1;
-  const width = kHi - kLo + 3;
+  const { first, width } = searchedLines(band, n);
   const reach = KERNEL_REACH;
   const kernelRe = new Float64Array(2 * reach + 1);
   const kernelIm = new Float64Array(2 * reach + 1);
@@ -103,9 +130,7 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
     const k = kMin + j;
     rotRe[j] = Math.cos((Math.PI * k * lag0) / n);
     rotIm[j] = Math.sin((Math.PI * k * lag0) / n);
-    // S is even and K-periodic: line k reads the stored line |k| folded into 0 … N.
-    const folded = ((k % nfft) + nfft) % nfft;
-    line[j] = folded > n ? nfft - folded : folded;
+    line[j] = foldLine(k, n);
   }
   const sRe = new Float64Array(span);
   const sIm = new Float64Array(span);
@@ -122,7 +147,8 @@ export function bandTonalLoudness(band: number, blocks: readonly BandBlocks[]): 
       // Scaled so this band's ACF at lag 0 is N'², clause 6.2.2; averaged over the bands, 6.2.3.
       const w = (nl * nl) / b.energy[k] / blocks.length;
       lag0Value += (nl * nl) / blocks.length;
-      const row = k * rowLength;
+      const rowLength = b.lines[1] - b.lines[0] + 1;
+      const row = k * rowLength - b.lines[0];
       for (let j = 0; j < span; j++) sRe[j] += w * b.power[row + line[j]];
     }
     lag0Values[k] = lag0Value;

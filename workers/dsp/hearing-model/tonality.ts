@@ -26,7 +26,7 @@ import { earFilter, fadeIn } from './ear-filter';
 import { BAND_CENTRES_HZ, BAND_COUNT, bandBlockSize, filterBand } from './filter-bank';
 import { thresholdSpecificLoudness } from './nonlinearity';
 import { resampleTo48k } from './resample';
-import { bandTonalLoudness } from './tonal-loudness';
+import { bandTonalLoudness, linesRead } from './tonal-loudness';
 import { interpolateOnGrid, noiseReducedTonalLoudness, noiseTonalFraction } from './tonality-time';
 
 /** Result of {@link hearingModelTonality}. */
@@ -119,7 +119,14 @@ export function hearingModelTonality(samplesPa: Float32Array | Float64Array, sam
     const key = `${band}:${blockSize}`;
     let b = segments.get(key);
     if (!b) {
-      b = segmentBand(bandSignal(band), blockSize, thresholdSpecificLoudness(BAND_CENTRES_HZ[band]));
+      // Keep the lines that this band and its neighbours read (the union of their ranges).
+      let lines: [number, number] = [blockSize, 0];
+      for (const z of [band - 1, band, band + 1]) {
+        if (z < 0 || z >= BAND_COUNT) continue;
+        const [lo, hi] = linesRead(z, blockSize);
+        lines = [Math.min(lines[0], lo), Math.max(lines[1], hi)];
+      }
+      b = segmentBand(bandSignal(band), blockSize, thresholdSpecificLoudness(BAND_CENTRES_HZ[band]), lines);
       segments.set(key, b);
     }
     return b;

@@ -9,17 +9,20 @@
  * binHz·ENBW.
  *
  * Steps (clause numbers of [1] recalled from memory where marked):
- * - Critical band: Δf_c = 25 + 75·[1 + 1.4·(f_T/kHz)²]^0.69 Hz [1] (the Zwicker–Terhardt form [4],
- *   shared with ECMA-418-1: tonality.ts criticalBandwidthHz), centred arithmetically on the tone,
- *   f_T ± Δf_c/2 (from memory; ECMA-418-1 centres it geometrically).
- * - Mean narrow-band level L_S: the energetic mean of the lines in the critical band, repeated
- *   without the lines more than 6 dB above the last mean until no line leaves (from memory).
- * - Tone level L_T: the peak line and the contiguous lines more than 6 dB above L_S, summed,
+ * - Critical band: Δf_c = 25 + 75·[1 + 1.4·(f_T/kHz)²]^0.69 Hz [1] (the Zwicker–Terhardt form [4]),
+ *   with the tone at the geometric mean of its edges, as in ECMA-418-1: tonality.ts
+ *   criticalBandwidthHz and criticalBandEdges.
+ * - Mean narrow-band level L_S: the energetic mean of the lines in the critical band without the
+ *   tone's line, repeated without the lines more than 6 dB above the last mean, until it changes by
+ *   less than 0.005 dB or fewer than 5 lines remain on a side of the tone; less 10·lg(ENBW), so it is
+ *   the level in one line spacing Δf.
+ * - Tone level L_T: the peak line and the contiguous lines more than 6 dB above the mean, summed,
  *   less 10·lg(ENBW) (from memory).
- * - Masking noise level L_G = L_S + 10·lg(Δf_c/Δf_e), Δf_e = binHz·ENBW the lines' noise bandwidth.
+ * - Masking noise level L_G = L_S + 10·lg(Δf_c/Δf).
  * - Masking index a_v = −2 − lg[1 + (f_T/502 Hz)^2.5] dB [1].
  * - Audibility ΔL = L_T − L_G − a_v [1]; the masked threshold is L_G + a_v.
- * Several tones in one critical band are summed by [1]; here each tone is judged alone.
+ * Not done here: [1]'s checks of a tone's distinctness (edge steepness, bandwidth), the summing of
+ * several tones in one critical band, and its 50 Hz lower limit; each tone is judged alone.
  *
  * References:
  *   [1] ISO/TS 20065:2016 (ISO/PAS 20065), Acoustics — Objective method for assessing the
@@ -31,12 +34,16 @@
  *   [5] J. O. Smith, Spectral Audio Signal Processing (W3K, 2011), quadratic interpolation of peaks.
  */
 import { REF_SOUND_PRESSURE_PA, toDb } from './levels';
-import { criticalBandwidthHz, toneAudibility } from './tonality';
+import { criticalBandEdges, criticalBandwidthHz, toneAudibility } from './tonality';
 
 /** ENBW of the Hann window (bins) [3]. */
 export const HANN_ENBW_BINS = 1.5;
-/** Lines this far above the mean narrow-band level belong to a tone, not the noise [1] (from memory). */
+/** Lines this far above the mean narrow-band level belong to a tone, not the noise [1]. */
 const TONE_LINE_MARGIN_DB = 6;
+/** The mean narrow-band level's iteration ends when it moves less than this (dB) [1]. */
+const LS_TOLERANCE_DB = 0.005;
+/** … or when fewer lines than this remain on either side of the tone [1]. */
+const LS_MIN_LINES_A_SIDE = 5;
 /** A peak counts as a tone for {@link findTones} this far above its critical band's L_S (Fanlight's choice). */
 const FIND_MARGIN_DB = 10;
 /** Candidate peaks examined by {@link findTones} at most, strongest first. */
@@ -60,7 +67,7 @@ export interface ToneAudibility {
   criticalBandwidthHz: number;
   /** Masking noise level L_G in the critical band (dB re 20 µPa). */
   maskingNoiseDb: number;
-  /** Mean narrow-band level L_S, per line (dB re 20 µPa). */
+  /** Mean narrow-band level L_S, the noise in one line spacing (dB re 20 µPa). */
   narrowBandNoiseDb: number;
   /** L_T above the free-field threshold of hearing of ISO 389-7 (dB), tonality.ts toneAudibility; NaN outside 20 Hz–18 kHz. */
   aboveHearingThresholdDb: number;
@@ -71,10 +78,9 @@ export function maskingIndexDb(fHz: number): number {
   return -2 - Math.log10(1 + (fHz / 502) ** 2.5);
 }
 
-/** The critical band f_T ± Δf_c/2 of [1] (arithmetic centring, from memory), as [f1, f2] (Hz). */
+/** The critical band around a tone, [f1, f2] with f1·f2 = f_T² and f2 − f1 = Δf_c [1] (tonality.ts criticalBandEdges). */
 export function ts20065CriticalBand(fHz: number): [number, number] {
-  const half = criticalBandwidthHz(fHz) / 2;
-  return [Math.max(0, fHz - half), fHz + half];
+  return criticalBandEdges(fHz);
 }
 
 function checkSpectrum(p: Float64Array, binHz: number): void {
@@ -84,30 +90,36 @@ function checkSpectrum(p: Float64Array, binHz: number): void {
 
 /** Line range [k1, k2] of the critical band around fHz, inside the spectrum and above DC. */
 function bandLines(n: number, binHz: number, fHz: number): [number, number] {
-  const [f1, f2] = ts20065CriticalBand(fHz);
+  const [f1, f2] = criticalBandEdges(fHz);
   return [Math.max(1, Math.ceil(f1 / binHz)), Math.min(n - 1, Math.floor(f2 / binHz))];
 }
 
 /**
- * Mean narrow-band level L_S as a mean square per line: the energetic mean of lines k1…k2, repeated
- * without the lines above it by more than 6 dB until none leaves [1] (from memory).
+ * Mean narrow-band power per line (the power behind L_S before its ENBW correction) [1]: the
+ * energetic mean of lines k1…k2 without the tone's line `centre`, repeated without the lines more
+ * than 6 dB above the last mean, until it moves by less than 0.005 dB or fewer than 5 lines remain
+ * on a side of the tone.
  */
-export function meanNarrowBandPower(p: Float64Array, k1: number, k2: number): number {
+export function meanNarrowBandPower(p: Float64Array, k1: number, k2: number, centre: number): number {
   const limitFactor = 10 ** (TONE_LINE_MARGIN_DB / 10);
+  const tolerance = 10 ** (LS_TOLERANCE_DB / 10);
   let limit = Infinity;
   let mean = 0;
-  for (let pass = 0; pass < 50; pass++) {
+  for (let pass = 0; pass < 100; pass++) {
     let sum = 0;
-    let count = 0;
+    let below = 0;
+    let above = 0;
     for (let k = k1; k <= k2; k++) {
-      if (p[k] <= limit) {
-        sum += p[k];
-        count++;
-      }
+      if (k === centre || !(p[k] <= limit)) continue;
+      sum += p[k];
+      if (k < centre) below++;
+      else above++;
     }
-    const next = count ? sum / count : 0;
-    if (pass > 0 && next === mean) break;
+    if (pass > 0 && (below < LS_MIN_LINES_A_SIDE || above < LS_MIN_LINES_A_SIDE)) break;
+    const next = below + above ? sum / (below + above) : 0;
+    const settled = pass > 0 && next <= mean * tolerance && next * tolerance >= mean;
     mean = next;
+    if (settled) break;
     limit = mean * limitFactor;
   }
   return mean;
@@ -158,7 +170,7 @@ export function toneAudibilityTs20065(
   const ft = interpolatedPeakHz(p, binHz, peak);
   const dfc = criticalBandwidthHz(ft);
   const [k1, k2] = bandLines(p.length, binHz, ft);
-  const ls = meanNarrowBandPower(p, k1, k2);
+  const ls = meanNarrowBandPower(p, k1, k2, peak);
   // Tone lines: the peak and its contiguous neighbours more than 6 dB above L_S.
   const toneLimit = ls * 10 ** (TONE_LINE_MARGIN_DB / 10);
   let lo = peak;
@@ -168,8 +180,8 @@ export function toneAudibilityTs20065(
   let toneSum = 0;
   for (let k = lo; k <= hi; k++) toneSum += p[k];
   const levelDb = toDb(toneSum / enbwBins, REF_SOUND_PRESSURE_PA);
-  const narrowBandNoiseDb = toDb(ls, REF_SOUND_PRESSURE_PA);
-  const maskingNoiseDb = narrowBandNoiseDb + 10 * Math.log10(dfc / (binHz * enbwBins));
+  const narrowBandNoiseDb = toDb(ls / enbwBins, REF_SOUND_PRESSURE_PA);
+  const maskingNoiseDb = narrowBandNoiseDb + 10 * Math.log10(dfc / binHz);
   const av = maskingIndexDb(ft);
   return {
     toneHz: ft,
@@ -212,7 +224,7 @@ export function findTones(powerSpectrumPa2: Float64Array, binHz: number, max: nu
     if (taken.length >= max) break;
     if (taken.some((j) => Math.abs(j - k) < 3)) continue;
     const [k1, k2] = bandLines(p.length, binHz, k * binHz);
-    if (p[k] > margin * meanNarrowBandPower(p, k1, k2)) taken.push(k);
+    if (p[k] > margin * meanNarrowBandPower(p, k1, k2, k)) taken.push(k);
   }
   return taken.map((k) => interpolatedPeakHz(p, binHz, k));
 }

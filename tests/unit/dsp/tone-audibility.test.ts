@@ -45,33 +45,38 @@ describe('maskingIndexDb', () => {
     // At 10 kHz: (10000/502)^2.5 = 1771, lg 1772 = 3.2485, a_v = −5.25 dB ("about −5.3 dB",
     // /work/shared/references.md §12).
     expect(maskingIndexDb(10000)).toBeCloseTo(-5.2485, 3);
+    // ISO 1996-2:2017 Annex J describes the index as falling to −6 dB at 20 kHz: (20000/502)^2.5 = 10018.
+    expect(maskingIndexDb(20000)).toBeCloseTo(-6.0, 2);
   });
 });
 
 describe('ts20065CriticalBand', () => {
-  it('is Δf_c = 25 + 75·(1 + 1.4·(f/kHz)²)^0.69 wide and centred on the tone', () => {
+  it('is Δf_c = 25 + 75·(1 + 1.4·(f/kHz)²)^0.69 wide with the tone at the geometric mean of its edges', () => {
     // ISO/TS 20065 critical bandwidth at 1 kHz: 25 + 75·2.4^0.69 = 25 + 75·1.8295 = 162.2 Hz.
     expect(criticalBandwidthHz(1000)).toBeCloseTo(162.2, 1);
     const [f1, f2] = ts20065CriticalBand(1000);
     expect(f2 - f1).toBeCloseTo(criticalBandwidthHz(1000), 9);
-    expect((f1 + f2) / 2).toBeCloseTo(1000, 9);
+    expect(Math.sqrt(f1 * f2)).toBeCloseTo(1000, 9);
   });
 });
 
 describe('meanNarrowBandPower', () => {
-  it('leaves out lines more than 6 dB above the mean, so a tone line does not raise the noise level', () => {
-    // ISO/TS 20065 L_S: energetic mean without the tone lines. 40 noise lines of 1 and one line of 1000.
+  it('leaves out the tone line and lines more than 6 dB above the mean, so tone lines do not raise the noise level', () => {
+    // ISO/TS 20065 L_S: energetic mean without the tone's line, then without lines 6 dB above the mean.
+    // 40 noise lines of 1, the tone line of 1000 and its two neighbours of 250.
     const p = new Float64Array(41).fill(1);
     p[20] = 1000;
-    expect(meanNarrowBandPower(p, 0, 40)).toBe(1);
+    p[19] = 250;
+    p[21] = 250;
+    expect(meanNarrowBandPower(p, 0, 40, 20)).toBe(1);
   });
 });
 
 describe('toneAudibilityTs20065', () => {
   it('gives the analytic ΔL of a 60 dB tone at 1 kHz in white noise of 30 dB per hertz', async () => {
     // Textbook computation, ISO/TS 20065 ΔL = L_T − L_G − a_v:
-    //   noise of PSD S = p0²·10^(30/10) Pa²/Hz → level in the critical band
-    //   L_G = 30 + 10·lg(Δf_c) = 30 + 10·lg(162.2) = 52.10 dB;
+    //   noise of PSD S = p0²·10^(30/10) Pa²/Hz → in one line spacing Δf: L_S = 30 + 10·lg(Δf) dB,
+    //   in the critical band L_G = L_S + 10·lg(Δf_c/Δf) = 30 + 10·lg(162.2) = 52.10 dB;
     //   a_v(1 kHz) = −2.82 dB; L_T = 60 dB; ΔL = 60 − 52.10 + 2.82 = 10.72 dB.
     const psd = P0 * P0 * 1e3;
     const x = tonesInWhiteNoise(20, psd, [[1000, 60]], 1);
@@ -84,6 +89,7 @@ describe('toneAudibilityTs20065', () => {
     expect(r.toneHz).toBeCloseTo(1000, 0);
     expect(Math.abs(r.levelDb - 60)).toBeLessThan(0.3);
     expect(Math.abs(r.maskingNoiseDb - expectedLg)).toBeLessThan(0.3);
+    expect(Math.abs(r.narrowBandNoiseDb - (30 + 10 * Math.log10(binHz)))).toBeLessThan(0.3);
     expect(r.maskingIndexDb).toBeCloseTo(expectedAv, 3);
     expect(Math.abs(r.audibilityDb - (60 - expectedLg - expectedAv))).toBeLessThan(0.4);
     expect(r.maskedThresholdDb).toBeCloseTo(r.maskingNoiseDb + r.maskingIndexDb, 9);

@@ -15,8 +15,13 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..')
 const cacheDir = path.join(root, 'node_modules/.cache/fanlight-cli');
 const manifestFile = path.join(cacheDir, 'manifest.json');
 /** Bump when the build options below change, so old bundles are rebuilt. */
-const BUILD_VERSION = 1;
-const ENTRIES = { analyze: 'server/cli/analyze.ts', 'map-thread': 'server/cli/map-thread.ts' };
+const BUILD_VERSION = 2;
+/** The CLI and the entries of its worker threads (thread-pool.ts and campaign-pool.ts start them from here). */
+const ENTRIES = {
+  analyze: 'server/cli/analyze.ts',
+  'map-thread': 'server/cli/map-thread.ts',
+  'campaign-thread': 'server/cli/campaign/campaign-thread.ts',
+};
 
 const mtimeOf = (file) => {
   try {
@@ -86,7 +91,7 @@ async function build() {
 }
 
 const bundleDir = freshBundle() ?? (await build());
-// thread-pool.ts starts its map threads from the bundle's map-thread.js when this is set.
+// thread-pool.ts and campaign-pool.ts start their threads from the bundle's entries when this is set.
 globalThis.fanlightCliBundleDir = bundleDir;
 const { main } = await import(pathToFileURL(path.join(bundleDir, 'analyze.js')).href);
 process.exitCode = await main(process.argv.slice(2));

@@ -23,7 +23,7 @@
  */
 import { type BandBlocks, segmentBand } from './band-blocks';
 import { earFilter, fadeIn } from './ear-filter';
-import { BAND_CENTRES_HZ, BAND_COUNT, bandBlockSize, filterBand } from './filter-bank';
+import { BAND_CENTRES_HZ, BAND_COUNT, HMS_FS_HZ, bandBlockSize, filterBand } from './filter-bank';
 import { thresholdSpecificLoudness } from './nonlinearity';
 import { resampleTo48k } from './resample';
 import { bandTonalLoudness, linesRead } from './tonal-loudness';
@@ -102,7 +102,7 @@ export function hearingModelTonality(samplesPa: Float32Array | Float64Array, sam
   const ear = earFilter(x);
   const length = ear.length;
   const gridCount = Math.max(1, Math.floor((length - 1) / COMMON_HOP) + 1);
-  const t = Float64Array.from({ length: gridCount }, (_, l) => (l * COMMON_HOP) / 48000);
+  const t = Float64Array.from({ length: gridCount }, (_, l) => (l * COMMON_HOP) / HMS_FS_HZ);
 
   const signals = new Map<number, Float64Array>();
   const bandSignal = (band: number): Float64Array => {

@@ -9,17 +9,24 @@ export interface CliRun {
   stderr: string;
 }
 
-/** Starts `node --import tsx server/cli/analyze.ts ARGS` (no npm wrapper, so a signal reaches the CLI itself). */
-export function startAnalyze(args: string[], env: NodeJS.ProcessEnv = {}): { child: ChildProcess; done: Promise<CliRun>; stderrLines: (listener: (line: string) => void) => void } {
-  return startNode('server/cli/analyze.ts', args, env);
+/**
+ * Starts `node --import tsx server/cli/analyze.ts ARGS` (no npm wrapper, so a signal reaches the CLI
+ * itself), or with `launcher` the way `npm run analyze` starts it, from the JavaScript bundle.
+ */
+export function startAnalyze(
+  args: string[],
+  env: NodeJS.ProcessEnv = {},
+  launcher = false,
+): { child: ChildProcess; done: Promise<CliRun>; stderrLines: (listener: (line: string) => void) => void } {
+  return launcher ? startNode('server/cli/analyze-launch.mjs', args, env, false) : startNode('server/cli/analyze.ts', args, env);
 }
 
 export function startWorker(args: string[]): { child: ChildProcess; done: Promise<CliRun>; stderrLines: (listener: (line: string) => void) => void } {
   return startNode('server/cli/analyze-worker.ts', args, {});
 }
 
-function startNode(entry: string, args: string[], env: NodeJS.ProcessEnv) {
-  const child = spawn(process.execPath, ['--import', 'tsx', entry, ...args], { cwd: PROJECT_ROOT, env: { ...process.env, ...env } });
+function startNode(entry: string, args: string[], env: NodeJS.ProcessEnv, tsx = true) {
+  const child = spawn(process.execPath, [...(tsx ? ['--import', 'tsx'] : []), entry, ...args], { cwd: PROJECT_ROOT, env: { ...process.env, ...env } });
   let stdout = '';
   let stderr = '';
   const listeners: ((line: string) => void)[] = [];
@@ -36,8 +43,8 @@ function startNode(entry: string, args: string[], env: NodeJS.ProcessEnv) {
   return { child, done, stderrLines: (listener: (line: string) => void) => listeners.push(listener) };
 }
 
-export async function runAnalyze(args: string[], env: NodeJS.ProcessEnv = {}): Promise<CliRun> {
-  return startAnalyze(args, env).done;
+export async function runAnalyze(args: string[], env: NodeJS.ProcessEnv = {}, launcher = false): Promise<CliRun> {
+  return startAnalyze(args, env, launcher).done;
 }
 
 export interface ResultLine {

@@ -74,7 +74,10 @@ export class MapThreadPool {
     file: RowsFile,
   ): Promise<StftLayout> {
     const layout = stftLayout('x' in input ? input.x.length : input.frames, fsHz, settings);
-    await this.run(layout, 'x' in input ? { samples: this.shareable(input.x), layout, settings, file } : { wav: input.wav, layout, settings, file });
+    const job: Job = 'x' in input ? { samples: this.shareable(input.x), layout, settings, file } : { wav: input.wav, layout, settings, file };
+    // Chunks of at most about 2 MB of rows: each thread's buffers (rows, samples read) stay small, so
+    // fewer fresh pages to fault in (costly in a virtual machine) and its first write starts sooner.
+    await this.run(layout, job, Math.max(1, Math.floor((2 << 20) / (4 * layout.bins))));
     return layout;
   }
 
@@ -82,10 +85,11 @@ export class MapThreadPool {
     return x.buffer instanceof SharedArrayBuffer ? x : shared(x);
   }
 
-  private async run(layout: StftLayout, job: Job): Promise<void> {
+  private async run(layout: StftLayout, job: Job, maxFramesPerChunk = Infinity): Promise<void> {
     // Chunks go to whichever thread is free (a busy core no longer holds back a fixed share), two in
     // flight per thread so none waits for its next message.
-    const chunks = frameChunks(layout.frames, Math.max(1, Math.ceil(layout.frames / (this.workers.length * 8))));
+    const perChunk = Math.min(maxFramesPerChunk, Math.ceil(layout.frames / (this.workers.length * 8)));
+    const chunks = frameChunks(layout.frames, Math.max(1, perChunk));
     let next = 0;
     const feed = async (w: Worker) => {
       while (next < chunks.length) {

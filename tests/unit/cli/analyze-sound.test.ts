@@ -45,7 +45,7 @@ writeFileSync(twoTonesFile, wav([twoTones], { bits: 32, float: true, sampleRateH
 
 describe('analyze sound', () => {
   // ISO 532-1:2017 Annex B: 1 kHz at 60 dB, free field → 4.019 sone (5 %). Fails with the upper-slope
-  // table USL as recalled from memory (it reads 7.5 sone, see workers/dsp/loudness/iso532-1-tables.ts);
+  // table USL as recalled from memory (it reads about 5.2 sone, see workers/dsp/loudness/iso532-1-tables.ts);
   // `it.fails` turns red once the table is corrected.
   it.fails('gives the loudness of a 1 kHz tone at 60 dB as 4.019 sone within 5 % (ISO 532-1:2017 Annex B)', async () => {
     const r = await analyze('sound', file, '--channel', '0', '--cal', String(CAL_60_DB));

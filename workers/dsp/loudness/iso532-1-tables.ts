@@ -59,33 +59,38 @@ export const ZUP: readonly number[] = Object.freeze([
   0.9, 1.8, 2.8, 3.5, 4.4, 5.4, 6.6, 7.9, 9.2, 10.6, 12.3, 13.8, 15.2, 16.7, 18.1, 19.3, 20.6, 21.8, 22.7, 23.6, 24,
 ]);
 
-/** RNS: the specific-loudness ranges (sone/Bark) that select a row of USL (from memory). */
-export const RNS: readonly number[] = Object.freeze([
-  250, 170, 120, 80, 60, 40, 30, 20, 15, 10, 7, 5, 3, 2, 1.5, 1, 0.5, 0.1,
-]);
+/**
+ * RNS: the specific-loudness ranges (sone/Bark) that select a row of USL, from 18 sone/Bark down
+ * (from memory; the head of the list, 18 … 0.25, is recalled with confidence, the smallest four less so).
+ */
+export const RNS: readonly number[] = Object.freeze([18, 16, 14, 12, 10, 8, 6, 4, 2, 1.5, 1, 0.5, 0.25, 0.12, 0.05, 0.025, 0.012, 0.006]);
 
 /**
  * USL[range][group]: steepness of the upper slope of the specific-loudness pattern (sone/Bark per
  * Bark) for the range RNS[range], by critical-band group (columns 0–7; band 8 and above use column 7).
- * From memory; of all the tables here the lower rows are the least certain.
+ * From memory. The first seven rows (13.0 … 2.2) are recalled with confidence and carry a loud sound:
+ * 250 Hz at 80 dB comes out at 14.68 sone against the standard's 14.655 (Annex B). The lower rows are
+ * not: 1 kHz at 40 and 60 dB and 4 kHz at 40 dB come out 10–16 % above the standard's values, so those
+ * rows are too shallow by about a fifth. They are left as recalled, not fitted to the test values;
+ * tests/unit/dsp/loudness-stationary.test.ts says so with `it.fails` until they are read from the standard.
  */
 export const USL: readonly (readonly number[])[] = Object.freeze([
   [13.0, 8.2, 5.7, 5.0, 5.0, 5.0, 5.0, 5.0],
   [9.0, 7.5, 6.0, 5.1, 4.5, 4.5, 4.5, 4.5],
   [7.8, 6.7, 5.6, 4.9, 4.4, 3.9, 3.9, 3.9],
-  [6.5, 5.6, 4.6, 4.2, 3.7, 3.3, 3.3, 3.3],
-  [5.8, 5.2, 4.3, 3.7, 3.3, 2.9, 2.9, 2.9],
-  [4.7, 4.2, 3.5, 3.1, 2.8, 2.4, 2.4, 2.4],
-  [3.9, 3.4, 2.9, 2.5, 2.2, 1.9, 1.9, 1.9],
-  [3.1, 2.7, 2.3, 2.0, 1.8, 1.55, 1.55, 1.55],
-  [2.4, 2.1, 1.8, 1.6, 1.4, 1.2, 1.2, 1.2],
-  [1.8, 1.6, 1.4, 1.2, 1.05, 0.95, 0.95, 0.95],
-  [1.4, 1.2, 1.05, 0.95, 0.85, 0.75, 0.75, 0.75],
-  [1.0, 0.9, 0.8, 0.7, 0.62, 0.55, 0.55, 0.55],
-  [0.75, 0.7, 0.61, 0.55, 0.5, 0.45, 0.45, 0.45],
-  [0.55, 0.5, 0.44, 0.4, 0.36, 0.32, 0.32, 0.32],
-  [0.45, 0.4, 0.35, 0.32, 0.29, 0.26, 0.26, 0.26],
-  [0.35, 0.32, 0.28, 0.25, 0.22, 0.2, 0.2, 0.2],
-  [0.25, 0.22, 0.2, 0.18, 0.16, 0.14, 0.14, 0.14],
-  [0.15, 0.14, 0.12, 0.11, 0.1, 0.09, 0.09, 0.09],
+  [6.5, 5.8, 5.1, 4.5, 3.9, 3.3, 3.3, 3.3],
+  [5.5, 5.0, 4.5, 4.0, 3.5, 2.9, 2.9, 2.9],
+  [4.7, 4.3, 3.9, 3.5, 3.1, 2.7, 2.7, 2.7],
+  [3.5, 3.3, 3.2, 2.9, 2.7, 2.3, 2.2, 2.2],
+  [2.2, 2.1, 2.0, 1.9, 1.7, 1.6, 1.5, 1.5],
+  [1.6, 1.6, 1.5, 1.4, 1.3, 1.2, 1.1, 1.1],
+  [1.05, 1.05, 1.0, 0.95, 0.9, 0.75, 0.7, 0.7],
+  [0.6, 0.6, 0.6, 0.55, 0.5, 0.45, 0.4, 0.4],
+  [0.42, 0.42, 0.4, 0.38, 0.35, 0.3, 0.3, 0.3],
+  [0.25, 0.25, 0.25, 0.23, 0.2, 0.17, 0.15, 0.15],
+  [0.12, 0.12, 0.12, 0.11, 0.1, 0.09, 0.08, 0.08],
+  [0.06, 0.06, 0.06, 0.05, 0.05, 0.05, 0.04, 0.04],
+  [0.04, 0.04, 0.04, 0.03, 0.03, 0.03, 0.03, 0.03],
+  [0.02, 0.02, 0.02, 0.02, 0.02, 0.02, 0.02, 0.02],
+  [0.02, 0.02, 0.02, 0.02, 0.02, 0.02, 0.02, 0.02],
 ]);

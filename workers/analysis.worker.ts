@@ -2,12 +2,13 @@
 /**
  * An analysis worker: computes one chunk of a map's frames and hands the powers back as a transferred
  * Float32Array; and, for the Bench, the speed from a tacho or speed channel, the map against speed
- * the inverter findings and the tracks of the guides. Only wiring here; the work is workers/dsp (shared with Node and tests).
+ * the inverter findings, the tracks of the guides, and the loudness and tonality of a microphone. Only wiring here; the work is workers/dsp (shared with Node and tests).
  * The pool in src/lib/workers/analysis-pool.ts runs several of these for maps; the Bench's longer
  * single tasks run in their own (src/lib/workers/analysis-tasks.ts).
  */
 import * as Comlink from 'comlink';
 import { guideTracks, type GuideTrack, type GuideTracksRequest } from './dsp/guide-tracks';
+import { loudnessCurve, tonalityCurve, type HearingRequest, type LoudnessCurve, type TonalityCurve } from './dsp/hearing-curves';
 import { analyseInverter, type InverterAnalysisInput, type InverterReport } from './dsp/inverter-analysis';
 import { computeMapChunk, type MapChunkRequest, type MapChunkResult } from './dsp/map-chunk';
 import { speedFromChannel, speedFromTacho, type SpeedCurve } from './dsp/speed';
@@ -59,6 +60,14 @@ const api = {
   tracks(req: GuideTracksRequest): GuideTrack[] {
     const tracks = guideTracks(req);
     return Comlink.transfer(tracks, tracks.flatMap((t) => [t.x.buffer, t.hz.buffer, t.db.buffer, t.crossing.buffer] as ArrayBuffer[]));
+  },
+  loudness(req: HearingRequest): LoudnessCurve {
+    const curve = loudnessCurve(req);
+    return Comlink.transfer(curve, [curve.t.buffer as ArrayBuffer, curve.sone.buffer as ArrayBuffer]);
+  },
+  tonality(req: HearingRequest): TonalityCurve {
+    const curve = tonalityCurve(req);
+    return Comlink.transfer(curve, [curve.t.buffer as ArrayBuffer, curve.tu.buffer as ArrayBuffer, curve.tonalHz.buffer as ArrayBuffer]);
   },
 };
 

@@ -19,6 +19,8 @@ export const overlay = {
   crosshair: withAlpha(palette.mist[100], 0.35),
   /** Where the sound is playing */
   playHead: palette.ok,
+  /** The hearing model's tonal frequency */
+  tonal: palette.mist[100],
   zoomBoxFill: withAlpha(palette.accent.DEFAULT, 0.12),
   zoomBoxStroke: withAlpha(palette.accent.DEFAULT, 0.9),
   text: palette.mist[100],

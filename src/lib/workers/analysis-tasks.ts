@@ -7,7 +7,7 @@
 import * as Comlink from 'comlink';
 import type { AnalysisWorkerApi } from '../../../workers/analysis.worker';
 
-export type TaskLane = 'speed' | 'speed-map' | 'findings' | 'tracks';
+export type TaskLane = 'speed' | 'speed-map' | 'findings' | 'tracks' | 'loudness' | 'tonality';
 
 export interface TaskJob<T> {
   promise: Promise<T>;

@@ -43,6 +43,7 @@ export function MapPanel() {
   const frameTimes = useBench((s) => s.frameTimes);
   const frameRpm = useBench((s) => s.frameRpm);
   const pinnedX = useBench((s) => s.pinnedX);
+  const tonal = useBench((s) => s.tonalLine);
   const marks = useBench((s) => s.shownMarks);
   const againstNote = useBench(againstNoteOf);
   const axes = mapAxes(view, against, swapped);
@@ -125,6 +126,7 @@ export function MapPanel() {
                 frameTimes={frameTimes}
                 frameRpm={frameRpm}
                 pinnedX={pinnedX}
+                tonal={tonal}
                 runId={runId}
                 mode={mode}
                 stores={live}

@@ -4,7 +4,7 @@ import type { GuideLine } from '../map/guides';
 import { MapImage } from '../map/map-image';
 import type { MapRaster } from '../map/map-raster';
 import { paintCursor } from '../map/paint-cursor';
-import { paintGuides } from '../map/paint-guides';
+import { paintGuides, type TonalLine } from '../map/paint-guides';
 import { paintLevels } from '../map/paint-levels';
 import type { Extents } from '../map/viewport';
 import type { BenchStores } from '../session/live-stores';
@@ -30,6 +30,8 @@ interface Props extends GestureProps {
   /** Marks drawn over the map: the saved view's and those waiting to be saved */
   marks: BenchMark[];
   label: string;
+  /** The hearing model's strongest tonal frequency, drawn over the guides */
+  tonal?: TonalLine | null;
   /** The run this map shows (the play head is drawn on it when that run is heard, or at its speed against speed) */
   runId?: string;
 }
@@ -81,7 +83,7 @@ export function MapView(props: Props) {
       }
     }
     if (n.guides && guidesRef.current) {
-      paintGuides(guidesRef.current, { view, swapped: p.swapped, hasMap, lines: p.lines, against: p.against, frameTimes: p.frameTimes, frameRpm: p.frameRpm, dpr: dpr.current });
+      paintGuides(guidesRef.current, { view, swapped: p.swapped, hasMap, lines: p.lines, against: p.against, frameTimes: p.frameTimes, frameRpm: p.frameRpm, dpr: dpr.current, tonal: p.tonal });
     }
     if ((n.cursor || n.guides) && cursorRef.current) {
       const d = drag.current;
@@ -181,7 +183,7 @@ export function MapView(props: Props) {
 
   useEffect(() => {
     scheduler.request({ guides: true });
-  }, [props.lines, props.frameTimes, props.frameRpm, scheduler]);
+  }, [props.lines, props.frameTimes, props.frameRpm, props.tonal, scheduler]);
 
   useEffect(() => {
     scheduler.request({ cursor: true });

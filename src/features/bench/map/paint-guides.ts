@@ -1,5 +1,6 @@
 import { ticks } from '../../../lib/plot/axis-ticks';
 import { guideColour, guideDash, overlay, OVERLAY_FONT } from '../../../lib/plot/overlay';
+import { speedAtTimes } from '../../../../workers/dsp/hearing-curves';
 import { linePoints, type GuideLine } from './guides';
 import { geometry, type Viewport } from './viewport';
 
@@ -12,6 +13,13 @@ export interface GuidesScene {
   frameTimes: Float64Array | null;
   frameRpm: Float64Array | null;
   dpr: number;
+  /** The hearing model's strongest tonal frequency against time, drawn dotted (null: not shown) */
+  tonal?: TonalLine | null;
+}
+
+export interface TonalLine {
+  t: Float64Array;
+  hz: Float64Array;
 }
 
 interface Label {
@@ -85,7 +93,26 @@ export function paintGuides(canvas: HTMLCanvasElement, s: GuidesScene): void {
   }
   ctx.setLineDash([]);
   ctx.globalAlpha = 1;
+  if (s.tonal) paintTonal(ctx, s.tonal, s, g, labels);
   paintLabels(ctx, labels, W, H, dpr);
+}
+
+/** The tonal frequency as dots at its moments (against speed, at the speed the frames give them). */
+function paintTonal(ctx: CanvasRenderingContext2D, tonal: TonalLine, s: GuidesScene, g: ReturnType<typeof geometry>, labels: Label[]) {
+  const view = s.view!;
+  const xs = s.against === 'time' || !s.frameTimes || !s.frameRpm ? tonal.t : speedAtTimes(tonal.t, s.frameTimes, s.frameRpm);
+  const r = 1.6 * s.dpr;
+  ctx.fillStyle = overlay.tonal;
+  let last: [number, number] | null = null;
+  for (let i = 0; i < xs.length; i++) {
+    const x = xs[i];
+    const f = tonal.hz[i];
+    if (!Number.isFinite(x) || !Number.isFinite(f) || x < view.x[0] || x > view.x[1] || f < view.f[0] || f > view.f[1]) continue;
+    const [sx, sy] = g.toScreen(x, f);
+    ctx.fillRect(sx - r, sy - r, 2 * r, 2 * r);
+    last = [sx, sy];
+  }
+  if (last) labels.push({ x: last[0], y: last[1], text: 'tonal (ECMA-418-2)', colour: overlay.tonal });
 }
 
 /** Labels sit at the line's last visible point; one that would cover another moves down (or up). */

@@ -6,12 +6,14 @@ import { captureView } from './capture-view';
 import { createBenchStores, type BenchStores } from './live-stores';
 import { createStore, type Store } from './store';
 import { useAnalysisModel } from './use-analysis-model';
+import { useHearing } from './use-hearing';
 import { useInputsModel } from './use-inputs-model';
 import { useMapModel } from './use-map-model';
 import { useViewModel } from './use-view-model';
 
 /**
- * One Bench session: recording → channel setup → speed → map → findings → guide lines → tracks, and
+ * One Bench session: recording → channel setup → speed → map → findings → guide lines → tracks (and,
+ * for a microphone, its loudness and tonality), and
  * how the engineer looks at them. The model hooks own every computation (they alone start worker
  * tasks); the state lands in a store that panels read through selectors, so a panel re-renders only
  * for what it shows.
@@ -47,6 +49,12 @@ function useBenchModel(
     restore,
     follow?.guides,
   );
+  const hearing = useHearing({
+    channel: m.mapChannel,
+    fsHz: recording.decoded.header.sampleRateHz,
+    soundPressure: analysis.state.soundPressure,
+    owner: recording.entry.fingerprint,
+  });
   const view = useViewModel({
     live,
     fromView,
@@ -63,11 +71,12 @@ function useBenchModel(
     dispatchGuides: analysis.actions.dispatchGuides,
     follow,
   });
-  const state = { recording, fromView, preferredProjectId, following: follow !== undefined, ...inputs.state, ...m, ...analysis.state, ...view.state };
+  const state = { recording, fromView, preferredProjectId, following: follow !== undefined, ...inputs.state, ...m, ...analysis.state, ...hearing.state, ...view.state };
   const actions = {
     ...inputs.actions,
     ...map.actions,
     ...analysis.actions,
+    ...hearing.actions,
     ...view.actions,
     capture: () => captureView(state, live.viewport.get()),
   };

@@ -78,7 +78,7 @@ export const postCampaignResultBody = z.object({
 });
 export type PostCampaignResultBody = z.infer<typeof postCampaignResultBody>;
 
-/** file (A→Z), the time a result came, or the level of the strongest family / the overall level; `-` descends. */
+/** file (A→Z), the time a result came, the level of the strongest family or the overall level (files without one last), ok (failures first); `-` descends. */
 export const campaignResultSorts = ['file', '-file', 'createdAt', '-createdAt', 'peakDb', '-peakDb', 'overallDb', '-overallDb', 'ok', '-ok'] as const;
 export type CampaignResultSort = (typeof campaignResultSorts)[number];
 

@@ -28,7 +28,7 @@ const fileName = z
   .string({ error: 'Name the file (its path relative to the campaign folder).' })
   .min(1, { error: 'Name the file (its path relative to the campaign folder).' })
   .max(CAMPAIGN_FILE_MAX, { error: `A file name is at most ${CAMPAIGN_FILE_MAX} characters.` })
-  .refine((f) => !/[\u0000-\u001f]/.test(f), { error: 'A file name holds no control characters.' });
+  .refine((f) => ![...f].some((c) => c.charCodeAt(0) < 0x20), { error: 'A file name holds no control characters.' });
 
 /** tags per file: {"run-01.wav": {"build": "B2", "load": "full"}, …} */
 const campaignTags = z.record(fileName, tagValues, { error: 'Tags are an object of file name → {tag: value}.' });

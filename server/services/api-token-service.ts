@@ -52,11 +52,11 @@ export class ApiTokenService {
   /** The grant of a bearer secret that still holds (its use noted), or TOKEN_INVALID saying why not. */
   async grantFor(secret: string): Promise<TokenGrant> {
     const grant = API_TOKEN_FORM.test(secret) ? await this.tokens.grantOf(hashToken(secret)) : null;
-    if (!grant) throw new TokenInvalidError('This API token is not known. Make one on your Tokens page.');
-    if (grant.revokedAt) throw new TokenInvalidError('This API token was revoked. Make a new one on your Tokens page.');
+    if (!grant) throw new TokenInvalidError('This API token is not known. Make one under Settings → API tokens.');
+    if (grant.revokedAt) throw new TokenInvalidError('This API token was revoked. Make a new one under Settings → API tokens.');
     const now = this.now();
     if (grant.expiresAt.getTime() <= now.getTime()) {
-      throw new TokenInvalidError(`This API token expired on ${grant.expiresAt.toISOString().slice(0, 10)}. Make a new one on your Tokens page.`);
+      throw new TokenInvalidError(`This API token expired on ${grant.expiresAt.toISOString().slice(0, 10)}. Make a new one under Settings → API tokens.`);
     }
     if (!grant.lastUsedAt || now.getTime() - grant.lastUsedAt.getTime() >= 60_000) await this.tokens.touch(grant.id, now);
     return grant;

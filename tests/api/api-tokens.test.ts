@@ -114,6 +114,23 @@ describe('personal API tokens', () => {
     expect((await bearer(secret).post('/api/me/tokens', { name: 'x', projectId, role: 'viewer', expiresInDays: 1 })).status).toBe(401);
   });
 
+  it('lets a script retry a create with the same Idempotency-Key without making a second campaign', async () => {
+    const { secret } = (await make(engineer, {})).body;
+    const send = () =>
+      supertest(t.app)
+        .post(`/api/projects/${projectId}/campaigns`)
+        .set('Authorization', `Bearer ${secret}`)
+        .set('Idempotency-Key', 'c0ffee00-retry-of-one-campaign')
+        .send({ name: 'retried once', preset: {}, total: 12 });
+    const first = await send();
+    const retry = await send();
+    expect(first.status).toBe(201);
+    expect(retry.status).toBe(201);
+    expect(retry.headers['idempotent-replayed']).toBe('true');
+    expect(retry.body.campaign.id).toBe(first.body.campaign.id);
+    expect(await t.db('campaigns').where({ project_id: projectId, name: 'retried once' }).count({ n: '*' })).toEqual([{ n: 1 }]);
+  });
+
   it('acts as the token\'s user even beside another user\'s session cookie', async () => {
     const { secret } = (await make(engineer, { role: 'viewer' })).body;
     // the viewer's browser session plus the engineer's viewer token: the token decides, and it may not write

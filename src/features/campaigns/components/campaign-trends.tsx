@@ -54,10 +54,13 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
       points: { show: true, size, width: 1.5, stroke: colour(), fill: colour() },
     });
     const pick = (u: uPlot, e: MouseEvent) => {
+      // from the client position, not offsetX: the event's target may be one of uPlot's cursor lines
+      const box = u.over.getBoundingClientRect();
+      const [cx, cy] = [e.clientX - box.left, e.clientY - box.top];
       let best = -1;
       let bestD = PICK_RADIUS_PX;
       pointsRef.current.forEach((p, i) => {
-        const d = Math.hypot(u.valToPos(p.x, 'x') - e.offsetX, u.valToPos(p.db, 'y') - e.offsetY);
+        const d = Math.hypot(u.valToPos(p.x, 'x') - cx, u.valToPos(p.db, 'y') - cy);
         if (d < bestD) {
           bestD = d;
           best = i;
@@ -75,7 +78,7 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
       cursor: { drag: { x: false, y: false }, points: { show: false } },
       hooks: {
         ready: [(u) => u.over.addEventListener('click', (e) => pick(u, e))],
-        // the median and the Hampel fences, dashed, across the plot
+        // the median and the Hampel fences, dashed, across the plot (grey: the danger colour marks the flagged points alone)
         draw: [
           (u) => {
             const fence = fenceRef.current;
@@ -85,9 +88,9 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
             ctx.setLineDash([4 * devicePixelRatio, 4 * devicePixelRatio]);
             ctx.lineWidth = devicePixelRatio;
             for (const [v, colour] of [
-              [fence.median, themeColour((p) => p.mist[500])],
-              [fence.low, themeColour((p) => p.danger)],
-              [fence.high, themeColour((p) => p.danger)],
+              [fence.median, themeColour((p) => p.mist[300])],
+              [fence.low, themeColour((p) => p.mist[500])],
+              [fence.high, themeColour((p) => p.mist[500])],
             ] as const) {
               const y = u.valToPos(v, 'y', true);
               if (y < u.bbox.top || y > u.bbox.top + u.bbox.height) continue;

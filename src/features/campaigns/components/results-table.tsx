@@ -52,11 +52,11 @@ export function ResultsTable({ projectId, campaignId, tagNames }: { projectId: n
 
   const columns = useMemo(
     () => [
-      col.accessor('file', { id: 'file', header: 'File', cell: ({ getValue }) => <span className="break-all font-mono text-xs text-mist-100">{getValue()}</span> }),
+      col.accessor('file', { id: 'file', header: 'File', cell: ({ getValue }) => <span className="whitespace-nowrap font-mono text-xs text-mist-100">{getValue()}</span> }),
       ...pageTags.map((tag) =>
         col.display({ id: `tag:${tag}`, header: tag, enableSorting: false, cell: ({ row }) => <span className="text-xs">{row.original.tags[tag] ?? dash}</span> }),
       ),
-      col.display({ id: 'carrier', header: 'Carrier schedule', enableSorting: false, cell: ({ row }) => (row.original.summary ? <span className="font-mono text-xs">{carrierScheduleText(row.original.summary)}</span> : dash) }),
+      col.display({ id: 'carrier', header: 'Carrier schedule', enableSorting: false, cell: ({ row }) => (row.original.summary ? <span className="whitespace-nowrap font-mono text-xs">{carrierScheduleText(row.original.summary)}</span> : dash) }),
       col.display({ id: 'shifts', header: 'Shifts', enableSorting: false, cell: ({ row }) => (row.original.summary ? <span className="font-mono text-xs">{shiftsText(row.original.summary)}</span> : dash) }),
       col.display({ id: 'spread', header: 'Spread', enableSorting: false, cell: ({ row }) => (row.original.summary ? <span className="font-mono text-xs">{spreadText(row.original.summary)}</span> : dash) }),
       col.display({
@@ -92,6 +92,8 @@ export function ResultsTable({ projectId, campaignId, tagNames }: { projectId: n
       }),
       col.accessor('ok', {
         id: 'status',
+        // failed first: those are the rows one looks for
+        sortDescFirst: false,
         header: 'Result',
         cell: ({ row }) =>
           row.original.ok ? (

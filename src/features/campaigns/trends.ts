@@ -20,7 +20,9 @@ export function trendKeyLabel(key: TrendKey): string {
   const [kind, a, b] = key.split(':');
   if (kind === 'order') return `order ${a}`;
   const n = Number(b);
-  return `${a === '1' ? '' : a}fc ${n < 0 ? '−' : '+'} ${Math.abs(n) === 1 ? '' : Math.abs(n)}fe`;
+  const carrier = `${a === '1' ? '' : a}fc`;
+  if (n === 0) return carrier;
+  return `${carrier} ${n < 0 ? '−' : '+'} ${Math.abs(n) === 1 ? '' : Math.abs(n)}fe`;
 }
 
 /** One track of the raw inverter object: level against speed, the points a crossing spoils left out. */
@@ -53,6 +55,9 @@ function trackOf(inverter: Loose | null, key: TrendKey): Track | null {
   }
   return out.rpm.length ? out : null;
 }
+
+/** Whether any result carries the track itself (its level against speed), not only the summary's peak: a level at a speed needs it. */
+export const anyTrack = (results: ResultRow[], key: TrendKey) => results.some((r) => r.ok && trackOf(r.inverter, key) !== null);
 
 /** The tracks a campaign's results name: the families of the summaries, and those and the orders of the raw objects. */
 export function trendKeys(results: ResultRow[]): TrendKey[] {

@@ -79,6 +79,7 @@ describe('trend keys and tag axes', () => {
     expect(keys).toEqual(['family:1:2', 'family:2:-1', 'order:8', 'order:48']);
     expect(trendKeyLabel('family:2:-1')).toBe('2fc − fe');
     expect(trendKeyLabel('family:1:2')).toBe('fc + 2fe');
+    expect(trendKeyLabel('family:2:0')).toBe('2fc');
   });
 
   it('plots a numeric tag at its value and any other in natural order (B2 before B10)', () => {

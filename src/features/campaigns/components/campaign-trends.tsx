@@ -7,7 +7,7 @@ import { plotAxis, UPlotChart } from '../../bench';
 import { TRENDS_MAX_RESULTS, useAllCampaignResults } from '../api/campaigns';
 import { baseName, formatDb, formatRpm } from '../result-format';
 import { buildTrend, type TrendPoint } from '../trend-points';
-import { tagNames, trendKeyLabel, trendKeys, type LevelMeasure } from '../trends';
+import { anyTrack, tagNames, trendKeyLabel, trendKeys, type LevelMeasure } from '../trends';
 import { TrendPointCard } from './trend-point-card';
 
 /** A click nearer than this to a point, in CSS pixels, picks it. */
@@ -32,9 +32,12 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
   const [selectedId, setSelectedId] = useState<number | null>(null);
 
   const shownKey = keys.includes(key) ? key : (keys[0] ?? '');
+  // the summaries hold each strongest family's peak only; a level at a speed needs the raw track
+  const tracked = useMemo(() => anyTrack(results, shownKey), [results, shownKey]);
   const shownTag = tag ?? tags[0] ?? RECEIVED_ORDER;
   const rpm = Number(rpmText);
-  const measure = useMemo((): LevelMeasure | null => (measureKind === 'peak' ? { kind: 'peak' } : Number.isFinite(rpm) && rpm > 0 ? { kind: 'at-speed', rpm } : null), [measureKind, rpm]);
+  const atSpeed = measureKind === 'at-speed' && tracked;
+  const measure = useMemo((): LevelMeasure | null => (!atSpeed ? { kind: 'peak' } : Number.isFinite(rpm) && rpm > 0 ? { kind: 'at-speed', rpm } : null), [atSpeed, rpm]);
   const trend = useMemo(() => (shownKey && measure ? buildTrend(results, shownKey, measure, shownTag || null) : null), [results, shownKey, measure, shownTag]);
   const okResults = results.filter((r) => r.ok);
   const baseline = okResults.find((r) => r.id === baselineId) ?? null;
@@ -137,12 +140,14 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
         </label>
         <label className="flex flex-col gap-1">
           Level
-          <select className={compactSelectClass} value={measureKind} onChange={(e) => setMeasureKind(e.target.value as 'peak' | 'at-speed')} aria-label="Level measure">
+          <select className={compactSelectClass} value={atSpeed ? 'at-speed' : 'peak'} onChange={(e) => setMeasureKind(e.target.value as 'peak' | 'at-speed')} aria-label="Level measure">
             <option value="peak">peak level</option>
-            <option value="at-speed">level at a speed</option>
+            <option value="at-speed" disabled={!tracked}>
+              {tracked ? 'level at a speed' : 'level at a speed (no tracks in these results)'}
+            </option>
           </select>
         </label>
-        {measureKind === 'at-speed' && (
+        {atSpeed && (
           <label className="flex flex-col gap-1">
             Speed (rpm)
             <input type="number" min={1} className={`${compactSelectClass} w-28`} value={rpmText} onChange={(e) => setRpmText(e.target.value)} aria-label="Speed for the level, rpm" />
@@ -171,13 +176,18 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
           </select>
         </label>
       </div>
-      {measureKind === 'at-speed' && !measure && <Notice tone="error">The speed is a number of rpm above 0.</Notice>}
+      {atSpeed && !measure && <Notice tone="error">The speed is a number of rpm above 0.</Notice>}
       {data && data.total > data.results.length && (
         <Notice>
           Trends show the first {data.results.length} of {data.total} results (at most {TRENDS_MAX_RESULTS}).
         </Notice>
       )}
-      {trend && (
+      {trend && trend.points.length === 0 && (
+        <p className="text-sm text-mist-500" data-testid="trends-summary">
+          No recording has a level to plot here: {trend.left.length} left out (failed, without this track{atSpeed ? ` at ${formatRpm(rpm)}` : ''}, or without the tag {shownTag}).
+        </p>
+      )}
+      {trend && trend.points.length > 0 && (
         <>
           <div className="h-72 w-full">
             <UPlotChart options={options} data={plotData} onChart={(u) => (chartRef.current = u)} testId="campaign-trends-plot" label={`${trendKeyLabel(shownKey)} level against ${shownTag || 'the order received'}, one point per recording`} />

@@ -57,7 +57,7 @@ export function ResultsTable({ projectId, campaignId, tagNames }: { projectId: n
         col.display({ id: `tag:${tag}`, header: tag, enableSorting: false, cell: ({ row }) => <span className="text-xs">{row.original.tags[tag] ?? dash}</span> }),
       ),
       col.display({ id: 'carrier', header: 'Carrier schedule', enableSorting: false, cell: ({ row }) => (row.original.summary ? <span className="whitespace-nowrap font-mono text-xs">{carrierScheduleText(row.original.summary)}</span> : dash) }),
-      col.display({ id: 'shifts', header: 'Shifts', enableSorting: false, cell: ({ row }) => (row.original.summary ? <span className="font-mono text-xs">{shiftsText(row.original.summary)}</span> : dash) }),
+      col.display({ id: 'shifts', header: 'Shifts', enableSorting: false, cell: ({ row }) => (row.original.summary ? <span className="whitespace-nowrap font-mono text-xs">{shiftsText(row.original.summary)}</span> : dash) }),
       col.display({ id: 'spread', header: 'Spread', enableSorting: false, cell: ({ row }) => (row.original.summary ? <span className="font-mono text-xs">{spreadText(row.original.summary)}</span> : dash) }),
       col.display({
         id: 'polePairs',

@@ -131,6 +131,19 @@ describe('personal API tokens', () => {
     expect(await t.db('campaigns').where({ project_id: projectId, name: 'retried once' }).count({ n: '*' })).toEqual([{ n: 1 }]);
   });
 
+  it('gives another site\'s pages no way to send the header: a CORS preflight is not granted', async () => {
+    // A browser sends Authorization cross-site only after a preflight the server allows (Fetch standard,
+    // CORS protocol); without Access-Control-Allow-* in the answer it never sends the request, which is
+    // why a bearer request may skip the CSRF check.
+    const res = await supertest(t.app)
+      .options(`/api/projects/${projectId}/campaigns`)
+      .set('Origin', 'https://elsewhere.example')
+      .set('Access-Control-Request-Method', 'POST')
+      .set('Access-Control-Request-Headers', 'authorization, content-type');
+    expect(res.headers['access-control-allow-origin']).toBeUndefined();
+    expect(res.headers['access-control-allow-headers']).toBeUndefined();
+  });
+
   it('acts as the token\'s user even beside another user\'s session cookie', async () => {
     const { secret } = (await make(engineer, { role: 'viewer' })).body;
     // the viewer's browser session plus the engineer's viewer token: the token decides, and it may not write

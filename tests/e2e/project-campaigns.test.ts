@@ -3,7 +3,7 @@
  * a script (this test, with fetch) creates a campaign with it and posts each file's result (one failed,
  * one posted twice), the project's Campaigns section shows the progress, the results table sorts and
  * filters through the API, Trends plots one point per analysed run and flags the run whose families
- * were made 20 dB louder (Hampel identifier: median ± 3·1.4826·MAD), a click on that point shows its
+ * were made 20 dB louder (Hampel identifier within its build: median ± 3·1.4826·MAD), a click on that point shows its
  * row, and once the token is revoked a post with it answers 401.
  *
  * The inverter objects are `analyze inverter` output of a demo run-up (tests/fixtures/campaigns/
@@ -21,7 +21,7 @@ const runUp = JSON.parse(readFileSync(path.join(__dirname, '../fixtures/campaign
   strongestFamilies: { m: number; n: number; peakRms: number; peakRpm: number }[];
 };
 
-/** Runs of three builds; run-06's families are ten times (20 dB) stronger than its build mates'. */
+/** Runs of three builds; run-06's families are ten times (20 dB) stronger than its build mates' (run-05, run-08). */
 const runs = [
   { file: 'B1/run-01.wav', build: 'B1', ambientC: '25', scale: 1.0 },
   { file: 'B1/run-02.wav', build: 'B1', ambientC: '40', scale: 1.05 },
@@ -29,6 +29,7 @@ const runs = [
   { file: 'B2/run-04.wav', build: 'B2', ambientC: '40', scale: 1.1 },
   { file: 'B10/run-05.wav', build: 'B10', ambientC: '25', scale: 0.9 },
   { file: 'B10/run-06.wav', build: 'B10', ambientC: '40', scale: 10 },
+  { file: 'B10/run-08.wav', build: 'B10', ambientC: '40', scale: 1.02 },
 ];
 const broken = { file: 'B10/run-07.wav', build: 'B10', ambientC: '60' };
 const LOUD = 'B10/run-06.wav';
@@ -84,7 +85,7 @@ describe('project campaigns (browser)', () => {
 
     const campaignName = `Firmware sweep ${Date.now()}`;
     const tags = Object.fromEntries([...runs, broken].map((r) => [r.file, { build: r.build, ambientC: r.ambientC }]));
-    const created = await bearer(secret, 'POST', `/projects/${projectId}/campaigns`, { name: campaignName, preset: { channel: 0, tacho: 1, ppr: 60, polePairs: 4 }, total: 7, tags });
+    const created = await bearer(secret, 'POST', `/projects/${projectId}/campaigns`, { name: campaignName, preset: { channel: 0, tacho: 1, ppr: 60, polePairs: 4 }, total: 8, tags });
     expect(created.status).toBe(201);
     const campaignId = ((await created.json()) as { campaign: { id: number } }).campaign.id;
     const resultsUrl = `/projects/${projectId}/campaigns/${campaignId}/results`;
@@ -93,12 +94,12 @@ describe('project campaigns (browser)', () => {
     // a repeated post stores nothing new
     expect((await bearer(secret, 'POST', resultsUrl, { file: runs[0].file, ok: true, inverter: scaledInverter(3) })).status).toBe(200);
 
-    // the project's Campaigns section: 7 of 7 done, 1 failed
+    // the project's Campaigns section: 8 of 8 done, 1 failed
     await page.goto(`${baseUrl}/projects/${projectId}`);
     const listed = page.getByTestId('project-campaign').filter({ hasText: campaignName });
     await expect.poll(() => listed.count(), { timeout: 15_000 }).toBe(1);
     const progress = (await listed.getByTestId('campaign-progress').textContent()) ?? '';
-    expect(progress).toContain('7 / 7 done');
+    expect(progress).toContain('8 / 8 done');
     expect(progress).toContain('1 failed');
     expect(await listed.textContent()).toContain('Tomas Irvine');
     await listed.getByRole('link', { name: campaignName }).click();
@@ -106,7 +107,7 @@ describe('project campaigns (browser)', () => {
 
     // the table: every file, one column per tag, sorted and filtered by the API
     const rows = page.getByTestId('campaign-result');
-    await expect.poll(() => rows.count(), { timeout: 15_000 }).toBe(7);
+    await expect.poll(() => rows.count(), { timeout: 15_000 }).toBe(8);
     const head = (await page.getByTestId('campaign-results').locator('thead').textContent()) ?? '';
     expect(head).toContain('build');
     expect(head).toContain('ambientC');
@@ -126,13 +127,13 @@ describe('project campaigns (browser)', () => {
     expect(await firstFile()).toBe('B2/run-03.wav');
     expect(await page.getByTestId('campaign-results-range').textContent()).toContain('1–1 of 1');
     await page.getByLabel('Filter the results by file name or error').fill('');
-    await expect.poll(() => rows.count(), { timeout: 10_000 }).toBe(7);
+    await expect.poll(() => rows.count(), { timeout: 10_000 }).toBe(8);
 
-    // Trends: the six analysed runs against build (B1, B2, B10 in natural order), run-06 flagged
+    // Trends: the seven analysed runs against build (B1, B2, B10 in natural order); run-06 flagged against its build mates
     const trendsSummary = page.getByTestId('trends-summary');
     await expect.poll(() => trendsSummary.isVisible(), { timeout: 15_000 }).toBe(true);
     await page.getByLabel('Tag on the x axis').selectOption('build');
-    expect(await trendsSummary.textContent()).toContain('6 recordings plotted, 1 flagged');
+    expect(await trendsSummary.textContent()).toContain('7 recordings plotted, 1 flagged');
     expect(await page.getByRole('list', { name: 'Flagged recordings' }).textContent()).toContain('run-06.wav');
     await page.getByLabel('Baseline run').selectOption({ label: 'run-01.wav' });
 
@@ -181,7 +182,7 @@ describe('project campaigns (browser)', () => {
     await page.getByRole('button', { name: `Revoke the token ${tokenName}` }).click();
     await page.getByRole('dialog').getByRole('button', { name: 'Revoke token' }).click();
     await expect.poll(async () => (await row.textContent()) ?? '', { timeout: 10_000 }).toContain('revoked');
-    const refused = await bearer(secret, 'POST', resultsUrl, { file: 'B1/run-08.wav', ok: true, inverter: scaledInverter(1) });
+    const refused = await bearer(secret, 'POST', resultsUrl, { file: 'B1/run-09.wav', ok: true, inverter: scaledInverter(1) });
     expect(refused.status).toBe(401);
     expect(((await refused.json()) as { error: { code: string } }).error.code).toBe('TOKEN_INVALID');
 

@@ -11,11 +11,17 @@ export interface TrendPoint {
   outlier: boolean;
 }
 
+/** The Hampel fence of the points between fromX and toX (all of them when both are null). */
+export interface TrendFence extends Omit<OutlierFence, 'outlier'> {
+  fromX: number | null;
+  toX: number | null;
+}
+
 export interface Trend {
   axis: TagAxis;
   /** Ascending in x, as uPlot takes them */
   points: TrendPoint[];
-  fence: OutlierFence | null;
+  fences: TrendFence[];
   /** Results without a point: failed, without this track or speed, or without the tag */
   left: ResultRow[];
 }
@@ -23,28 +29,47 @@ export interface Trend {
 /** Points of one category are spread over this share of the gap between categories, so they do not hide each other. */
 const CATEGORY_SPREAD = 0.4;
 
-/** One point per recording: its level on `key` against tag `tag` (null: the order the results came in). */
+type Placed = Omit<TrendPoint, 'outlier'> & { outlier: boolean };
+
+function fenceOver(points: Placed[], fromX: number | null, toX: number | null): TrendFence | null {
+  const fence = hampelOutliers(points.map((p) => p.db));
+  if (!fence) return null;
+  points.forEach((p, i) => (p.outlier = fence.outlier[i]));
+  const { outlier: _flags, ...rest } = fence;
+  return { ...rest, fromX, toX };
+}
+
+/**
+ * One point per recording: its level on `key` against tag `tag` (null: the order the results came in).
+ * Against a categorical tag (a build, a firmware) a run is judged against the runs of its own category,
+ * so a whole build being louder reads as the trend it is and a run unlike its build mates stands out;
+ * against a numeric tag or the order received, against all the runs.
+ */
 export function buildTrend(results: ResultRow[], key: TrendKey, measure: LevelMeasure, tag: string | null): Trend {
   const axis: TagAxis = tag === null ? { kind: 'numeric' } : tagAxis(results.map((r) => r.tags[tag] ?? ''));
   const received = [...results].sort((a, b) => a.createdAt.localeCompare(b.createdAt) || a.id - b.id);
-  const placed: Omit<TrendPoint, 'outlier'>[] = [];
+  const placed: Placed[] = [];
   const left: ResultRow[] = [];
   for (const [i, result] of received.entries()) {
     const level = levelOf(result, key, measure);
     const x = tag === null ? i + 1 : tagPosition(axis, result.tags[tag]);
     if (!level || x === null) left.push(result);
-    else placed.push({ result, x, db: level.db, rpm: level.rpm });
+    else placed.push({ result, x, db: level.db, rpm: level.rpm, outlier: false });
   }
+  const fences: TrendFence[] = [];
   if (axis.kind === 'categorical') {
-    const byCategory = new Map<number, typeof placed>();
+    const byCategory = new Map<number, Placed[]>();
     for (const p of placed) byCategory.set(p.x, [...(byCategory.get(p.x) ?? []), p]);
-    for (const group of byCategory.values()) {
+    for (const [category, group] of byCategory) {
+      const fence = fenceOver(group, category - 0.5, category + 0.5);
+      if (fence) fences.push(fence);
       if (group.length < 2) continue;
       group.sort((a, b) => a.result.file.localeCompare(b.result.file));
       group.forEach((p, j) => (p.x += CATEGORY_SPREAD * (j / (group.length - 1) - 0.5)));
     }
+  } else {
+    const fence = fenceOver(placed, null, null);
+    if (fence) fences.push(fence);
   }
-  const fence = hampelOutliers(placed.map((p) => p.db));
-  const points = placed.map((p, i) => ({ ...p, outlier: fence?.outlier[i] ?? false })).sort((a, b) => a.x - b.x);
-  return { axis, points, fence, left };
+  return { axis, points: placed.sort((a, b) => a.x - b.x), fences, left };
 }

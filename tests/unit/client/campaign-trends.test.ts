@@ -8,6 +8,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { ResultRow } from '../../../src/features/campaigns/api/campaigns';
+import { buildTrend } from '../../../src/features/campaigns/trend-points';
 import { hampelOutliers, levelOf, tagAxis, tagPosition, trendKeyLabel, trendKeys } from '../../../src/features/campaigns/trends';
 
 interface Fixtures {
@@ -88,5 +89,39 @@ describe('trend keys and tag axes', () => {
     expect(axis).toEqual({ kind: 'categorical', values: ['B1', 'B2', 'B10'] });
     expect(tagPosition(axis, 'B10')).toBe(2);
     expect(tagPosition(axis, undefined)).toBeNull();
+  });
+});
+
+describe('buildTrend', () => {
+  // one run per value, its family peak at that level: a summary with that family alone
+  const run = (id: number, db: number, tags: Record<string, string>): ResultRow =>
+    result(null, {
+      id,
+      file: `run-${String(id).padStart(3, '0')}.wav`,
+      tags,
+      summary: { carrierScheduleHz: [], shifts: [], spread: { spread: false, widthHz: null }, polePairs: 4, strongestFamilies: [{ m: 1, n: -1, peakDb: db, peakRpm: 5000 }], overallDb: null },
+    });
+  const [a, b] = fixtures.hampel;
+  const runs = [...a.values.map((db, i) => run(i + 1, db, { build: 'A' })), ...b.values.map((db, i) => run(100 + i, db, { build: 'B' }))];
+
+  it('judges each run against its own category, flagging what scipy flags within each', () => {
+    const trend = buildTrend(runs, 'family:1:-1', { kind: 'peak' }, 'build');
+    const flagged = (build: string) => trend.points.filter((p) => p.result.tags.build === build).sort((p, q) => p.result.id - q.result.id).map((p) => p.outlier);
+    expect(flagged('A')).toEqual(a.outlier);
+    expect(flagged('B')).toEqual(b.outlier);
+    expect(trend.fences.map((f) => [f.fromX, f.toX])).toEqual([
+      [-0.5, 0.5],
+      [0.5, 1.5],
+    ]);
+    // the points stay inside their category's band, in ascending x
+    expect(trend.points.every((p, i) => i === 0 || p.x >= trend.points[i - 1].x)).toBe(true);
+    expect(trend.points.filter((p) => p.result.tags.build === 'B').every((p) => p.x >= 0.8 && p.x <= 1.2)).toBe(true);
+  });
+
+  it('against the order received, judges every run against all of them', () => {
+    const trend = buildTrend(runs.slice(0, a.values.length), 'family:1:-1', { kind: 'peak' }, null);
+    expect(trend.fences).toHaveLength(1);
+    expect(trend.fences[0].median).toBeCloseTo(a.median, 10);
+    expect(trend.points.map((p) => p.outlier)).toEqual(a.outlier);
   });
 });

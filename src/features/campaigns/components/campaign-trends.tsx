@@ -45,8 +45,8 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
 
   const pointsRef = useRef<TrendPoint[]>([]);
   pointsRef.current = trend?.points ?? [];
-  const fenceRef = useRef(trend?.fence ?? null);
-  fenceRef.current = trend?.fence ?? null;
+  const fencesRef = useRef(trend?.fences ?? []);
+  fencesRef.current = trend?.fences ?? [];
 
   const categories = trend?.axis.kind === 'categorical' ? trend.axis.values : null;
   const options = useMemo((): Omit<uPlot.Options, 'width' | 'height'> => {
@@ -84,24 +84,27 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
         // the median and the Hampel fences, dashed, across the plot (grey: the danger colour marks the flagged points alone)
         draw: [
           (u) => {
-            const fence = fenceRef.current;
-            if (!fence) return;
             const ctx = u.ctx;
+            const [left, right] = [u.bbox.left, u.bbox.left + u.bbox.width];
             ctx.save();
             ctx.setLineDash([4 * devicePixelRatio, 4 * devicePixelRatio]);
             ctx.lineWidth = devicePixelRatio;
-            for (const [v, colour] of [
-              [fence.median, themeColour((p) => p.mist[300])],
-              [fence.low, themeColour((p) => p.mist[500])],
-              [fence.high, themeColour((p) => p.mist[500])],
-            ] as const) {
-              const y = u.valToPos(v, 'y', true);
-              if (y < u.bbox.top || y > u.bbox.top + u.bbox.height) continue;
-              ctx.strokeStyle = colour;
-              ctx.beginPath();
-              ctx.moveTo(u.bbox.left, y);
-              ctx.lineTo(u.bbox.left + u.bbox.width, y);
-              ctx.stroke();
+            for (const fence of fencesRef.current) {
+              const x0 = fence.fromX === null ? left : Math.max(left, u.valToPos(fence.fromX, 'x', true));
+              const x1 = fence.toX === null ? right : Math.min(right, u.valToPos(fence.toX, 'x', true));
+              for (const [v, colour] of [
+                [fence.median, themeColour((p) => p.mist[300])],
+                [fence.low, themeColour((p) => p.mist[500])],
+                [fence.high, themeColour((p) => p.mist[500])],
+              ] as const) {
+                const y = u.valToPos(v, 'y', true);
+                if (y < u.bbox.top || y > u.bbox.top + u.bbox.height) continue;
+                ctx.strokeStyle = colour;
+                ctx.beginPath();
+                ctx.moveTo(x0, y);
+                ctx.lineTo(x1, y);
+                ctx.stroke();
+              }
             }
             ctx.restore();
           },
@@ -143,7 +146,7 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
           <select className={compactSelectClass} value={atSpeed ? 'at-speed' : 'peak'} onChange={(e) => setMeasureKind(e.target.value as 'peak' | 'at-speed')} aria-label="Level measure">
             <option value="peak">peak level</option>
             <option value="at-speed" disabled={!tracked}>
-              {tracked ? 'level at a speed' : 'level at a speed (no tracks in these results)'}
+              {tracked ? 'level at a speed' : 'level at a speed (needs tracks)'}
             </option>
           </select>
         </label>
@@ -195,9 +198,11 @@ export function CampaignTrends({ projectId, campaignId }: { projectId: number; c
           <p className="text-xs text-mist-500" data-testid="trends-summary">
             {trend.points.length} recordings plotted, {outliers.length} flagged
             {trend.left.length > 0 && `; ${trend.left.length} left out (failed, without this track or speed, or without the tag)`}.{' '}
-            {trend.fence
-              ? `Flagged: further than 3 × 1.4826·MAD = ${(3 * trend.fence.scaledMad).toFixed(1)} dB from the median ${formatDb(trend.fence.median)} (Hampel identifier; dashed lines).`
-              : 'Outliers are judged from three points with some spread.'}{' '}
+            {trend.axis.kind === 'categorical'
+              ? `Flagged: further than 3 × 1.4826·MAD from the median of its own ${shownTag} (Hampel identifier; dashed lines, drawn where a ${shownTag} has three runs or more with some spread).`
+              : trend.fences[0]
+                ? `Flagged: further than 3 × 1.4826·MAD = ${(3 * trend.fences[0].scaledMad).toFixed(1)} dB from the median ${formatDb(trend.fences[0].median)} (Hampel identifier; dashed lines).`
+                : 'Outliers are judged from three runs or more with some spread.'}{' '}
             Click a point to see its row.
           </p>
           {outliers.length > 0 && (

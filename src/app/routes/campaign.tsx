@@ -69,7 +69,7 @@ function Campaign({ projectId, campaignId }: { projectId: number; campaignId: nu
             <ResultsTable projectId={projectId} campaignId={campaignId} tagNames={tagNames} />
           </Section>
           <Section title="Trends">
-            <CampaignTrends projectId={projectId} campaignId={campaignId} />
+            <CampaignTrends projectId={projectId} campaignId={campaignId} done={campaign.done} />
           </Section>
         </>
       )}

@@ -53,7 +53,7 @@ export const campaignKeys = {
   list: (projectId: number) => [...projectKeys.detail(projectId), 'campaigns'] as const,
   detail: (projectId: number, campaignId: number) => [...campaignKeys.list(projectId), campaignId] as const,
   results: (projectId: number, campaignId: number, page: ResultPageRequest) => [...campaignKeys.detail(projectId, campaignId), 'results', page] as const,
-  allResults: (projectId: number, campaignId: number) => [...campaignKeys.detail(projectId, campaignId), 'all-results'] as const,
+  allResults: (projectId: number, campaignId: number, done: number) => [...campaignKeys.detail(projectId, campaignId), 'all-results', done] as const,
 };
 
 /** Results still coming in show without a reload: the list and the open campaign ask again this often. */
@@ -102,9 +102,12 @@ export const useCampaignResults = (projectId: number, campaignId: number, page: 
  */
 export const TRENDS_MAX_RESULTS = 5000;
 
-export const useAllCampaignResults = (projectId: number, campaignId: number) =>
+export const useAllCampaignResults = (projectId: number, campaignId: number, done: number) =>
   useQuery({
-    queryKey: campaignKeys.allResults(projectId, campaignId),
+    // read again when the campaign's count of results moves (the campaign itself is polled), not on a timer:
+    // this is every result's raw object
+    queryKey: campaignKeys.allResults(projectId, campaignId, done),
+    placeholderData: keepPreviousData,
     queryFn: async () => {
       const results: ResultRow[] = [];
       let total = 0;

@@ -19,8 +19,8 @@ const RECEIVED_ORDER = '';
  * the points beyond the Hampel fences flagged. Clicking a point shows its row and, when the files are in
  * this browser, the way to its comparison with the baseline.
  */
-export function CampaignTrends({ projectId, campaignId }: { projectId: number; campaignId: number }) {
-  const { data, isPending, error } = useAllCampaignResults(projectId, campaignId);
+export function CampaignTrends({ projectId, campaignId, done }: { projectId: number; campaignId: number; done: number }) {
+  const { data, isPending, error } = useAllCampaignResults(projectId, campaignId, done);
   const results = useMemo(() => data?.results ?? [], [data]);
   const keys = useMemo(() => trendKeys(results), [results]);
   const tags = useMemo(() => tagNames(results), [results]);

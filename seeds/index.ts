@@ -4,6 +4,7 @@
  */
 import type { Knex } from 'knex';
 import { hashPassword } from '../server/services/passwords';
+import { seedDemoCampaign } from './demo-campaign';
 import { seedDemoContent } from './demo-content';
 import { DEMO_PASSWORD, demoAccounts, demoProject } from './demo-scenario';
 
@@ -13,6 +14,7 @@ export interface SeedReport {
   recordingsRegistered: number;
   viewCreated: boolean;
   comparisonCreated: boolean;
+  campaignCreated: boolean;
 }
 
 /** `demoDir`: where the demo recordings are (written there if missing); with it the project gets its content. */
@@ -58,5 +60,7 @@ export async function seedDemo(db: Knex, { demoDir }: { demoDir?: string } = {})
     });
   }
   const content = demoDir ? await seedDemoContent(db, demoDir) : { recordingsRegistered: 0, viewCreated: false, comparisonCreated: false };
-  return { usersCreated, projectCreated, ...content };
+  const engineer = demoAccounts.find((a) => a.projectRole === 'engineer')!;
+  const campaignCreated = await seedDemoCampaign(db, project!.id, ids.get(engineer.email)!);
+  return { usersCreated, projectCreated, ...content, campaignCreated };
 }

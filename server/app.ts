@@ -6,6 +6,7 @@ import type { Knex } from 'knex';
 import type { AppConfig } from './config';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { loadUser, requireSession } from './middleware/require-session';
+import { bearerAuth, unlessBearer } from './middleware/bearer';
 import { sessionMiddleware } from './middleware/session';
 import { csrfProtection } from './middleware/csrf';
 import { idempotentCreates } from './middleware/idempotency';
@@ -13,7 +14,9 @@ import { jsonBodiesOnly } from './middleware/json-only';
 import { IdempotencyRepository } from './repositories/idempotency-repository';
 import { createMailer, type Mailer } from './mail/mailer';
 import { adminRoutes } from './routes/admin';
+import { apiTokenRoutes } from './routes/api-tokens';
 import { authRoutes } from './routes/auth';
+import { campaignRoutes } from './routes/campaigns';
 import { demoRecordingFiles, demoRecordingListRoutes } from './routes/demo-recordings';
 import { healthRoutes } from './routes/health';
 import { invitationRoutes } from './routes/invitations';
@@ -26,7 +29,9 @@ import { shareLinkRoutes } from './routes/share-links';
 import { targetRoutes } from './routes/targets';
 import { viewRoutes } from './routes/views';
 import { AdminService } from './services/admin-service';
+import { ApiTokenService } from './services/api-token-service';
 import { AuthService } from './services/auth-service';
+import { CampaignService } from './services/campaign-service';
 import { InvitationService } from './services/invitation-service';
 import { MarkService } from './services/mark-service';
 import { NotificationService } from './services/notification-service';
@@ -42,6 +47,9 @@ export const JSON_BODY_LIMIT = '200kb';
 /** A CSV of targets may hold 200 kB of text; as a JSON string (escaped line ends, UTF-8) it needs a little more. */
 const TARGET_IMPORT_BODY_LIMIT = '300kb';
 const TARGET_IMPORT_PATH = /^\/projects\/[^/]+\/targets\/import$/;
+/** A campaign result keeps an inverter object of up to 256 kB; a campaign's per-file tags may list thousands of files. */
+const CAMPAIGN_BODY_LIMIT = '1mb';
+const CAMPAIGN_PATH = /^\/projects\/[^/]+\/campaigns(?:\/[^/]+(?:\/results)?)?$/;
 
 export interface AppDeps {
   config: AppConfig;
@@ -92,12 +100,17 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   const api = express.Router();
   const jsonBody = express.json({ limit: JSON_BODY_LIMIT });
   const importBody = express.json({ limit: TARGET_IMPORT_BODY_LIMIT });
-  api.use((req, res, next) => (TARGET_IMPORT_PATH.test(req.path) ? importBody : jsonBody)(req, res, next));
+  const campaignBody = express.json({ limit: CAMPAIGN_BODY_LIMIT });
+  api.use((req, res, next) =>
+    (TARGET_IMPORT_PATH.test(req.path) ? importBody : CAMPAIGN_PATH.test(req.path) ? campaignBody : jsonBody)(req, res, next),
+  );
   api.use(healthRoutes(db));
   if (config.env !== 'production') api.use(outboxRoutes(config.smtp.outboxDir));
-  api.use(session.middleware);
-  api.use(loadUser(auth));
-  api.use(csrfProtection([config.publicOrigin, ...config.extraOrigins]));
+  // Authorization: Bearer (an API token) instead of a session: no session is read, no CSRF token needed
+  api.use(bearerAuth(new ApiTokenService(db), auth));
+  api.use(unlessBearer(session.middleware));
+  api.use(unlessBearer(loadUser(auth)));
+  api.use(unlessBearer(csrfProtection([config.publicOrigin, ...config.extraOrigins])));
   // the routes that take a file check their own types (the snapshot, and a view saved whole)
   api.use(jsonBodiesOnly([/^\/projects\/[^/]+\/views$/, /^\/views\/[^/]+$/], [/^\/views\/[^/]+\/snapshot$/]));
   api.use(idempotency.middleware);
@@ -105,10 +118,12 @@ export function createApp({ config, db, mailer = createMailer(config.smtp) }: Ap
   api.use(projectRoutes(new ProjectService(db), invitations));
   api.use(recordingRoutes(new RecordingService(db)));
   api.use(targetRoutes(new TargetService(db)));
+  api.use(campaignRoutes(new CampaignService(db)));
   api.use(viewRoutes(views, new ViewSaveService(db, views, notifications)));
   api.use(markRoutes(new MarkService(db, notifications)));
   api.use(shareLinkRoutes(new ShareLinkService(db, views, notifications, config.publicOrigin)));
   api.use(notificationRoutes(notifications));
+  api.use(apiTokenRoutes(new ApiTokenService(db)));
   api.use(invitationRoutes(invitations));
   api.use(demoRecordingListRoutes(config.demoRecordingsDir));
   api.use(adminRoutes(new AdminService(db)));

@@ -6,6 +6,7 @@ export type ErrorCode =
   | 'VALIDATION_FAILED'
   | 'MALFORMED_JSON'
   | 'UNAUTHENTICATED'
+  | 'TOKEN_INVALID'
   | 'INVALID_CREDENTIALS'
   | 'FORBIDDEN'
   | 'CSRF_REJECTED'
@@ -47,6 +48,13 @@ export class ValidationError extends AppError {
 export class UnauthenticatedError extends AppError {
   constructor(message = 'Sign in first.') {
     super(401, 'UNAUTHENTICATED', message);
+  }
+}
+
+/** An API token (Authorization: Bearer) that is unknown, revoked or expired, or whose user is disabled. */
+export class TokenInvalidError extends AppError {
+  constructor(message: string) {
+    super(401, 'TOKEN_INVALID', message);
   }
 }
 

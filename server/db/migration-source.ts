@@ -20,6 +20,8 @@ import * as createComments from '../../migrations/20261201001400_create_comments
 import * as createNotificationSettings from '../../migrations/20261201001500_create_notification_settings';
 import * as createIdempotencyKeys from '../../migrations/20261205000100_create_idempotency_keys';
 import * as createTargets from '../../migrations/20261205000200_create_targets';
+import * as createApiTokens from '../../migrations/20261205000300_create_api_tokens';
+import * as createCampaigns from '../../migrations/20261205000400_create_campaigns';
 
 interface NamedMigration {
   name: string;
@@ -44,6 +46,8 @@ export const migrations: NamedMigration[] = [
   { name: '20261201001500_create_notification_settings', module: createNotificationSettings },
   { name: '20261205000100_create_idempotency_keys', module: createIdempotencyKeys },
   { name: '20261205000200_create_targets', module: createTargets },
+  { name: '20261205000300_create_api_tokens', module: createApiTokens },
+  { name: '20261205000400_create_campaigns', module: createCampaigns },
 ];
 
 export const migrationSource: Knex.MigrationSource<NamedMigration> = {

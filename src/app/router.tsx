@@ -5,6 +5,7 @@ import { RequireSignIn } from '../components/layouts/require-sign-in';
 import { paths } from '../config/paths';
 import { AdminUsersPage } from './routes/admin-users';
 import { BenchPage } from './routes/bench';
+import { CampaignPage } from './routes/campaign';
 import { ForgotPasswordPage } from './routes/forgot-password';
 import { InvitationPage } from './routes/invitation';
 import { NotFoundPage } from './routes/not-found';
@@ -39,6 +40,7 @@ const router = createBrowserRouter([
               { index: true, element: <Navigate to={paths.projects} replace /> },
               { path: paths.projects, element: <ProjectsPage /> },
               { path: paths.project(':id'), element: <ProjectPage /> },
+              { path: paths.campaign(':projectId', ':campaignId'), element: <CampaignPage /> },
               { path: paths.view(':id'), element: <ViewPage /> },
               { path: paths.bench, element: <BenchPage /> },
               { path: paths.settings, element: <SettingsPage /> },

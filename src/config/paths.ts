@@ -5,6 +5,8 @@ export const paths = {
   invitation: (token: string) => `/invitations/${token}`,
   projects: '/projects',
   project: (id: number | string) => `/projects/${id}`,
+  /** A test campaign of a project: its results table and Trends. */
+  campaign: (projectId: number | string, campaignId: number | string) => `/projects/${projectId}/campaigns/${campaignId}`,
   bench: '/bench',
   /** A saved view; `mark` selects one of its marks. */
   view: (id: number | string, mark?: number) => (mark === undefined ? `/views/${id}` : `/views/${id}?mark=${mark}`),

@@ -3,6 +3,7 @@
  * specification: a route registered in the app without a row here fails the first test.
  */
 import { randomBytes } from 'node:crypto';
+import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hashToken, newToken } from '../../server/services/tokens';
 import { makeProject, makeUser, sessionFor, uniqueEmail, type Session } from '../support/actors';
@@ -29,6 +30,25 @@ const member = (min: 'viewer' | 'engineer' | 'lead', ok: number): Expect => ({
 });
 const adminOnly = (ok: number): Expect => ({ ...signedIn(403), admin: ok });
 
+/**
+ * API tokens a script may come with (Authorization: Bearer), all the engineer's: one for the project at
+ * engineer, one capped at viewer, one for another project, a revoked one and an expired one.
+ */
+const BEARERS = ['tokenEngineer', 'tokenViewer', 'tokenOtherProject', 'tokenRevoked', 'tokenExpired'] as const;
+type Bearer = (typeof BEARERS)[number];
+type BearerExpect = Record<Bearer, number>;
+/** A campaign route: the token opens what its role does, its project only. */
+const byToken = (min: 'viewer' | 'engineer', ok: number): BearerExpect => ({
+  tokenEngineer: ok,
+  tokenViewer: min === 'viewer' ? ok : 403,
+  tokenOtherProject: 404,
+  tokenRevoked: 401,
+  tokenExpired: 401,
+});
+/** Every other route needs a session (401); a valid token gets no further, an invalid one neither. */
+const TOKEN_SHUT: BearerExpect = { tokenEngineer: 401, tokenViewer: 401, tokenOtherProject: 401, tokenRevoked: 401, tokenExpired: 401 };
+const TOKEN_IRRELEVANT: BearerExpect = { tokenEngineer: 200, tokenViewer: 200, tokenOtherProject: 200, tokenRevoked: 200, tokenExpired: 200 };
+
 interface Fixture {
   projectId: number;
   targetMemberId: number;
@@ -39,6 +59,11 @@ interface Fixture {
   viewId: number;
   markId: number;
   linkToken: string;
+  /** Each signed-in actor's user id (their own API tokens are made for them). */
+  userIds: Record<Exclude<Actor, 'anonymous'>, number>;
+  /** A campaign the engineer started. */
+  campaignId: number;
+  bearers: Record<Bearer, string>;
 }
 
 /** One call: a JSON body, or a file sent as multipart/form-data. */
@@ -56,6 +81,8 @@ interface Row {
   call(f: Fixture, actor: Actor): Promise<Call> | Call;
   /** Needs a session of its own (it changes or ends the session). */
   ownSession?: boolean;
+  /** With an API token instead of a session (the call made as the engineer's); default TOKEN_SHUT. */
+  bearer?: BearerExpect;
 }
 
 const t = startTestApp();
@@ -89,14 +116,33 @@ const TARGET_POINTS = [
   [1000, 60],
   [3000, 66],
 ];
+/** A token row for the user (the matrix's own tokens; the route makes its own with a secret). */
+async function insertApiToken(userId: number, projectId: number, role: 'viewer' | 'engineer', extra: Record<string, unknown> = {}) {
+  const secret = `flt_${newToken()}`;
+  const [id] = await t.db('api_tokens').insert({
+    user_id: userId,
+    project_id: projectId,
+    role,
+    name: 'matrix token',
+    token_hash: hashToken(secret),
+    expires_at: new Date(Date.now() + 24 * 3600_000),
+    ...extra,
+  });
+  return { id, secret };
+}
+
+/** Campaign results: each call its own file, so none meets the stored result of an earlier call. */
+let filesPosted = 0;
+
 async function insertTarget(projectId: number, createdBy: number): Promise<number> {
   const [id] = await t.db('targets').insert({ project_id: projectId, track: freshTrack(), weighting: 'A', points: JSON.stringify(TARGET_POINTS), created_by: createdBy });
   return id;
 }
 
 const ROWS: Row[] = [
-  { method: 'GET', route: '/api/health', expect: all(200), call: () => ({ path: '/api/health' }) },
-  { method: 'GET', route: '/api/outbox', expect: all(200), call: () => ({ path: '/api/outbox' }) },
+  // before any authentication: a token neither helps nor hurts
+  { method: 'GET', route: '/api/health', expect: all(200), bearer: TOKEN_IRRELEVANT, call: () => ({ path: '/api/health' }) },
+  { method: 'GET', route: '/api/outbox', expect: all(200), bearer: TOKEN_IRRELEVANT, call: () => ({ path: '/api/outbox' }) },
   { method: 'GET', route: '/api/auth/csrf', expect: all(200), call: () => ({ path: '/api/auth/csrf' }) },
   {
     method: 'POST',
@@ -381,6 +427,64 @@ const ROWS: Row[] = [
     expect: signedIn(200),
     call: () => ({ path: '/api/me/notifications', body: { shares: true } }),
   },
+  // ---- personal API tokens (a session only) and campaigns (a session or the project's token)
+  { method: 'GET', route: '/api/me/tokens', expect: signedIn(200), call: () => ({ path: '/api/me/tokens' }) },
+  {
+    method: 'POST',
+    route: '/api/me/tokens',
+    // a token for a project one is a member of, at a role one has
+    expect: member('viewer', 201),
+    call: (f) => ({ path: '/api/me/tokens', body: { name: 'matrix script', projectId: f.projectId, role: 'viewer', expiresInDays: 7 } }),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/me/tokens/:tokenId',
+    // each caller revokes a token of their own
+    expect: signedIn(204),
+    call: async (f, actor) => ({ path: `/api/me/tokens/${actor === 'anonymous' ? 1 : (await insertApiToken(f.userIds[actor], f.projectId, 'viewer')).id}` }),
+  },
+  {
+    method: 'GET',
+    route: '/api/projects/:projectId/campaigns',
+    expect: member('viewer', 200),
+    bearer: byToken('viewer', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/campaigns` }),
+  },
+  {
+    method: 'POST',
+    route: '/api/projects/:projectId/campaigns',
+    expect: member('engineer', 201),
+    bearer: byToken('engineer', 201),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/campaigns`, body: { name: 'Matrix campaign', preset: { block: 8192 }, total: 2 } }),
+  },
+  {
+    method: 'GET',
+    route: '/api/projects/:projectId/campaigns/:campaignId',
+    expect: member('viewer', 200),
+    bearer: byToken('viewer', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/campaigns/${f.campaignId}` }),
+  },
+  {
+    method: 'PATCH',
+    route: '/api/projects/:projectId/campaigns/:campaignId',
+    expect: member('engineer', 200),
+    bearer: byToken('engineer', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/campaigns/${f.campaignId}`, body: { total: 3 } }),
+  },
+  {
+    method: 'POST',
+    route: '/api/projects/:projectId/campaigns/:campaignId/results',
+    expect: member('engineer', 201),
+    bearer: byToken('engineer', 201),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/campaigns/${f.campaignId}/results`, body: { file: `run-${++filesPosted}.wav`, ok: false, error: 'no speed channel' } }),
+  },
+  {
+    method: 'GET',
+    route: '/api/projects/:projectId/campaigns/:campaignId/results',
+    expect: member('viewer', 200),
+    bearer: byToken('viewer', 200),
+    call: (f) => ({ path: `/api/projects/${f.projectId}/campaigns/${f.campaignId}/results?sort=-createdAt&limit=10` }),
+  },
 ];
 
 describe('route × role matrix', () => {
@@ -419,6 +523,16 @@ describe('route × role matrix', () => {
     await insertSnapshot(t.db, fixture.viewId);
     fixture.markId = await insertMark(t.db, fixture.viewId, engineer.id);
     fixture.linkToken = (await insertLink(t.db, fixture.viewId, engineer.id, { mayReply: true })).token;
+    fixture.userIds = { guest: guest.id, nonMember: nonMember.id, viewer: viewer.id, engineer: engineer.id, lead: lead.id, admin: admin.id };
+    [fixture.campaignId] = await t.db('campaigns').insert({ project_id: fixture.projectId, name: 'Matrix campaign', preset: '{}', tags: '{}', created_by: engineer.id });
+    const otherProjectId = await makeProject(t.db, [{ id: engineer.id, role: 'engineer' }]);
+    fixture.bearers = {
+      tokenEngineer: (await insertApiToken(engineer.id, fixture.projectId, 'engineer')).secret,
+      tokenViewer: (await insertApiToken(engineer.id, fixture.projectId, 'viewer')).secret,
+      tokenOtherProject: (await insertApiToken(engineer.id, otherProjectId, 'engineer')).secret,
+      tokenRevoked: (await insertApiToken(engineer.id, fixture.projectId, 'engineer', { revoked_at: new Date() })).secret,
+      tokenExpired: (await insertApiToken(engineer.id, fixture.projectId, 'engineer', { expires_at: new Date(Date.now() - 60_000) })).secret,
+    };
     for (const actor of ACTORS) sessions[actor] = await sessionFor(t.app, actor === 'anonymous' ? null : emails[actor]);
   });
   afterAll(() => t.close());
@@ -444,6 +558,26 @@ describe('route × role matrix', () => {
         // the one error shape, always
         expect(res.body.error).toMatchObject({ code: expect.any(String), message: expect.any(String) });
       }
+    });
+  });
+
+  // A script's token, without session or CSRF token: campaign routes by the token's role and project, the
+  // rest shut. Routes a token cannot open are called with the valid engineer token only.
+  describe.each(ROWS)('$method $route with an API token', (row) => {
+    const kinds = row.bearer ? BEARERS : (['tokenEngineer'] as const);
+    it.each(kinds)('as %s', async (kind) => {
+      const expected = (row.bearer ?? TOKEN_SHUT)[kind];
+      const { path, body, file } = await row.call(fixture, 'engineer');
+      const m = row.method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';
+      const req = supertest(t.app)[m](path).set('Authorization', `Bearer ${fixture.bearers[kind]}`);
+      const res = await (file
+        ? req.attach(file.field, file.bytes, { filename: 'matrix.fls', contentType: file.contentType })
+        : body === undefined
+          ? req
+          : req.send(body as object));
+      expect(res.status, `${row.method} ${path} with ${kind}: ${JSON.stringify(res.body)}`).toBe(expected);
+      if (res.status >= 400) expect(res.body.error).toMatchObject({ code: expect.any(String), message: expect.any(String) });
+      if (res.status === 401 && (kind === 'tokenRevoked' || kind === 'tokenExpired')) expect(res.body.error.code).toBe('TOKEN_INVALID');
     });
   });
 });

@@ -1,4 +1,5 @@
 import { afterAll, describe, expect, it } from 'vitest';
+import { DEMO_CAMPAIGN_NAME } from '../../seeds/demo-campaign';
 import { DEMO_COMPARISON_TITLE, FIRMWARE_B_FILE } from '../../seeds/demo-comparison';
 import { DEMO_VIEW_TITLE, RUN_UP_FILE, demoMarks, demoThread } from '../../seeds/demo-view';
 import { DEMO_PASSWORD, demoProject } from '../../seeds/demo-scenario';
@@ -22,10 +23,11 @@ describe('demo seed', () => {
       views: (await db('views').count({ n: '*' }))[0].n,
       marks: (await db('marks').count({ n: '*' }))[0].n,
       comments: (await db('comments').count({ n: '*' }))[0].n,
+      campaignResults: (await db('campaign_results').count({ n: '*' }))[0].n,
       hashes: (await db('users').orderBy('id').pluck('password_hash')).join(','),
     });
     const before = await count();
-    expect(await seedDemo(db, { demoDir })).toEqual({ usersCreated: 0, projectCreated: false, recordingsRegistered: 0, viewCreated: false, comparisonCreated: false });
+    expect(await seedDemo(db, { demoDir })).toEqual({ usersCreated: 0, projectCreated: false, recordingsRegistered: 0, viewCreated: false, comparisonCreated: false, campaignCreated: false });
     expect(await count()).toEqual(before);
   });
 
@@ -77,4 +79,20 @@ describe('demo seed', () => {
       expect(replies.flat().length).toBeGreaterThanOrEqual(2);
     },
   );
+
+  it('has a demo campaign of twelve invented run-ups over three builds: one failed, build B1 loudest, B3 spread', async () => {
+    const s = await sessionFor(t.app, 'viewer@fanlight.test', DEMO_PASSWORD);
+    const project = ((await s.request('GET', '/api/projects')).body.projects as { id: number; name: string }[]).find((p) => p.name === demoProject.name)!;
+    const campaigns = (await s.request('GET', `/api/projects/${project.id}/campaigns`)).body.campaigns as { id: number; name: string; total: number; done: number; failed: number }[];
+    const campaign = campaigns.find((c) => c.name === DEMO_CAMPAIGN_NAME)!;
+    expect(campaign).toMatchObject({ total: 12, done: 12, failed: 1 });
+    const page = (await s.request('GET', `/api/projects/${project.id}/campaigns/${campaign.id}/results?sort=-peakDb`)).body;
+    const rows = page.results as { file: string; ok: boolean; tags: { build: string }; summary: { spread: { spread: boolean }; carrierScheduleHz: number[] } | null }[];
+    expect(page.total).toBe(12);
+    // the builds were invented with first sidebands of 0.125, 0.062 and 0.041 g (±7.5 %): they sort by build
+    expect(rows.slice(0, 11).map((r) => r.tags.build)).toEqual(['B1', 'B1', 'B1', 'B1', 'B2', 'B2', 'B2', 'B2', 'B3', 'B3', 'B3']);
+    expect(rows[11]).toMatchObject({ ok: false, summary: null, tags: { build: 'B3' } });
+    expect(rows[0].summary!.carrierScheduleHz).toEqual([8000, 12000]);
+    expect(rows[10].summary!.spread.spread).toBe(true);
+  });
 });

@@ -5,8 +5,10 @@
  */
 import { randomUUID } from 'node:crypto';
 import fc from 'fast-check';
+import supertest from 'supertest';
 import type { Knex } from 'knex';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { hashToken, newToken } from '../../server/services/tokens';
 import { makeProject, makeUser, sessionFor, type Session } from '../support/actors';
 import { startTestApp } from '../support/test-app';
 import { insertMark, insertView, sampleState } from './view-fixtures';
@@ -22,6 +24,8 @@ interface Target {
   /** the table a success writes to, counted before and after a refusal */
   table: string;
   as: () => Session;
+  /** Sent with this API token (Authorization: Bearer) instead of the session. */
+  bearer?: () => string;
 }
 
 const REFUSALS = new Set([400, 403, 404, 409, 413, 415, 422]);
@@ -64,6 +68,10 @@ describe('bad input on the write routes', () => {
   let targetId: number;
   let tracksMade = 0;
   const freshTrack = () => `order:${++tracksMade}`;
+  let campaignId: number;
+  let engineerToken: string;
+  let filesPosted = 0;
+  const freshFile = () => `fuzz/run-${++filesPosted}.wav`;
 
   beforeAll(async () => {
     const l = await makeUser(t.db, 'fuzz-lead', 'staff');
@@ -76,6 +84,9 @@ describe('bad input on the write routes', () => {
     viewId = await insertView(t.db, projectId, e.id, 'Fuzz target');
     markId = await insertMark(t.db, viewId, e.id);
     [targetId] = await t.db('targets').insert({ project_id: projectId, track: 'overall', weighting: 'A', points: '[[0,60],[1000,70]]', created_by: e.id });
+    [campaignId] = await t.db('campaigns').insert({ project_id: projectId, name: 'Fuzz campaign', preset: '{}', tags: '{}', created_by: e.id });
+    engineerToken = `flt_${newToken()}`;
+    await t.db('api_tokens').insert({ user_id: e.id, project_id: projectId, role: 'engineer', name: 'fuzz', token_hash: hashToken(engineerToken), expires_at: new Date(Date.now() + 24 * 3600_000) });
     lead = await sessionFor(t.app, l.email);
     engineer = await sessionFor(t.app, e.email);
   });
@@ -139,6 +150,46 @@ describe('bad input on the write routes', () => {
     { name: 'edit a target', method: 'PATCH', path: () => `/api/targets/${targetId}`, valid: () => ({ version: 1, label: 'edited', points: [[0, 61], [1000, 71]] }), table: 'targets', as: () => engineer },
     { name: 'edit a mark', method: 'PATCH', path: () => `/api/marks/${markId}`, valid: () => ({ version: 1, text: 'edited' }), table: 'marks', as: () => engineer },
     { name: 'rename a view', method: 'PATCH', path: () => `/api/views/${viewId}`, valid: () => ({ version: 1, title: 'renamed' }), table: 'views', as: () => engineer },
+    {
+      name: 'make an API token',
+      method: 'POST',
+      path: () => '/api/me/tokens',
+      valid: () => ({ name: 'fuzz script', projectId, role: 'viewer', expiresInDays: 30 }),
+      table: 'api_tokens',
+      as: () => engineer,
+    },
+    {
+      name: 'start a campaign',
+      method: 'POST',
+      path: () => `/api/projects/${projectId}/campaigns`,
+      valid: () => ({ name: 'fuzz campaign', preset: { block: 8192, orders: [8, 48] }, total: 2, tags: { 'a.wav': { build: 'B1' } } }),
+      table: 'campaigns',
+      as: () => engineer,
+    },
+    {
+      name: 'change a campaign',
+      method: 'PATCH',
+      path: () => `/api/projects/${projectId}/campaigns/${campaignId}`,
+      valid: () => ({ name: 'renamed', total: 4, tags: { 'b.wav': { build: 'B2' } } }),
+      table: 'campaigns',
+      as: () => engineer,
+    },
+    ...(['session', 'token'] as const).map(
+      (by): Target => ({
+        name: `post a campaign result (${by})`,
+        method: 'POST',
+        path: () => `/api/projects/${projectId}/campaigns/${campaignId}/results`,
+        valid: () => ({
+          file: freshFile(),
+          ok: true,
+          inverter: { carrierShifts: [{ t: 14.3, rpm: 5997, fromHz: 8000, toHz: 12000 }], polePairs: { value: 4 }, strongestFamilies: [{ m: 1, n: 1, peakRms: 0.12, peakRpm: 11900 }] },
+          tags: { build: 'B1' },
+        }),
+        table: 'campaign_results',
+        as: () => engineer,
+        bearer: by === 'token' ? () => engineerToken : undefined,
+      }),
+    ),
   ];
 
   for (const target of targets) {
@@ -147,11 +198,11 @@ describe('bad input on the write routes', () => {
         fc.asyncProperty(fc.oneof(fc.tuple(fc.nat(), spoilers).map(([pick, value]) => spoil(target.valid(), pick, value)), fc.jsonValue({ maxDepth: 3 })), async (body) => {
           const before = await rows(t.db, target.table);
           const s = target.as();
+          const req = target.bearer
+            ? supertest(t.app)[target.method === 'POST' ? 'post' : 'patch'](target.path()).set('Authorization', `Bearer ${target.bearer()}`)
+            : (target.method === 'POST' ? s.agent.post(target.path()) : s.agent.patch(target.path())).set('X-CSRF-Token', s.csrf);
           // sent as JSON text: a bare number or string is a JSON body too
-          const res = await (target.method === 'POST' ? s.agent.post(target.path()) : s.agent.patch(target.path()))
-            .set('X-CSRF-Token', s.csrf)
-            .set('Content-Type', 'application/json')
-            .send(JSON.stringify(body));
+          const res = await req.set('Content-Type', 'application/json').send(JSON.stringify(body));
           expect(res.status, JSON.stringify(res.body)).toBeLessThan(500);
           if (res.status >= 400) {
             expect(REFUSALS.has(res.status), `${res.status}`).toBe(true);

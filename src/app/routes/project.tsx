@@ -4,6 +4,7 @@ import { Notice } from '../../components/ui/notice';
 import { linkClass } from '../../components/ui/styles';
 import { paths } from '../../config/paths';
 import { useProject } from '../../features/projects/api/projects';
+import { CampaignsSection } from '../../features/campaigns/components/campaigns-section';
 import { ActivityList } from '../../features/projects/components/activity-list';
 import { MembersSection } from '../../features/projects/components/members-section';
 import { ProjectHeader } from '../../features/projects/components/project-header';
@@ -43,6 +44,7 @@ function Project({ id }: { id: number }) {
         <ViewsSection projectId={id} isLead={project.role === 'lead'} />
         <RecordingsSection projectId={id} viewCounts={viewCounts} demoFiles={demoFiles} />
         <TargetsSection projectId={id} mayEdit={!project.archived && (project.role === 'engineer' || project.role === 'lead')} />
+        <CampaignsSection projectId={id} />
       </div>
       <div className="mt-6 grid items-start gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <MembersSection projectId={id} isLead={project.role === 'lead'} />

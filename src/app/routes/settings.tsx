@@ -2,6 +2,7 @@ import { useId, useState } from 'react';
 import type { NotificationSettings } from '../../../server/schemas/views';
 import { Notice } from '../../components/ui/notice';
 import { Section } from '../../components/ui/section';
+import { ApiTokensSection } from '../../features/api-tokens/components/api-tokens-section';
 import { useMe } from '../../features/auth/api/auth';
 import { useNotificationSettings, useUpdateNotifications } from '../../features/views/api/notifications';
 
@@ -26,7 +27,7 @@ export function SettingsPage() {
   };
 
   return (
-    <div className="mx-auto max-w-2xl px-6 py-8">
+    <div className="mx-auto max-w-3xl px-6 py-8">
       <h1 className="mb-1 text-xl font-semibold">Settings</h1>
       {me && <p className="mb-6 text-sm text-mist-500">Signed in as {me.email}</p>}
       <Section title="Notifications">
@@ -64,6 +65,9 @@ export function SettingsPage() {
           </div>
         </div>
       </Section>
+      <div className="mt-6">
+        <ApiTokensSection />
+      </div>
     </div>
   );
 }

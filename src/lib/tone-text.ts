@@ -9,7 +9,11 @@ export const db1 = (v: number) => (Number.isFinite(v) ? (Math.abs(v) < 0.05 ? '0
  * numbers are analyseInverter's, as the batch CLI prints them).
  */
 export function toneText(t: ToneFinding, atS: number): string {
-  const judged = `TNR ${db1(t.tnrDb)} dB (limit ${db1(t.tnrLimitDb)}), PR ${db1(t.prDb)} dB (limit ${db1(t.prLimitDb)})`;
+  const judged =
+    t.tnrDb !== null && t.prDb !== null
+      ? `TNR ${db1(t.tnrDb)} dB (limit ${db1(t.tnrLimitDb ?? NaN)}), PR ${db1(t.prDb)} dB (limit ${db1(t.prLimitDb ?? NaN)}), ${t.prominent ? 'prominent' : 'not prominent'}`
+      : 'no TNR or PR above 11.2 kHz (ECMA-418-1)';
   const heard = t.aboveThresholdDb === null ? '' : `; ${db1(t.levelDb!)} dB SPL, ${db1(Math.abs(t.aboveThresholdDb))} dB ${t.aboveThresholdDb >= 0 ? 'above' : 'below'} the threshold of hearing`;
-  return `${familyLabel(t.m, t.n)} at ${Math.round(t.hz)} Hz, ${atS.toFixed(2)} s: ${judged}, ${t.prominent ? 'prominent' : 'not prominent'}${heard}`;
+  const audible = t.audibilityDb === null || t.audibilityDb === undefined ? '' : `, audibility ${db1(t.audibilityDb)} dB over the masking noise (ISO/TS 20065)`;
+  return `${familyLabel(t.m, t.n)} at ${Math.round(t.hz)} Hz, ${atS.toFixed(2)} s: ${judged}${heard}${audible}`;
 }

@@ -83,6 +83,7 @@ export interface InverterReport {
 }
 
 const round = (x: number, digits = 6) => (Number.isFinite(x) ? Number(x.toPrecision(digits)) : x);
+const roundOrNull = (x: number | null) => (x === null ? null : round(x, 4));
 
 export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   const { power, layout, frameRpm } = input;
@@ -184,12 +185,13 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
       tones: tonality.tones.map((t) => ({
         ...t,
         hz: round(t.hz),
-        tnrDb: round(t.tnrDb, 4),
-        prDb: round(t.prDb, 4),
-        tnrLimitDb: round(t.tnrLimitDb, 4),
-        prLimitDb: round(t.prLimitDb, 4),
-        levelDb: t.levelDb === null ? null : round(t.levelDb, 4),
-        aboveThresholdDb: t.aboveThresholdDb === null ? null : round(t.aboveThresholdDb, 4),
+        tnrDb: roundOrNull(t.tnrDb),
+        prDb: roundOrNull(t.prDb),
+        tnrLimitDb: roundOrNull(t.tnrLimitDb),
+        prLimitDb: roundOrNull(t.prLimitDb),
+        levelDb: roundOrNull(t.levelDb),
+        aboveThresholdDb: roundOrNull(t.aboveThresholdDb),
+        audibilityDb: roundOrNull(t.audibilityDb),
       })),
     },
     carrier: { t: times.map((t) => round(t)), hz: Array.from(carrier.hz, (h) => round(h)) },

@@ -10,7 +10,8 @@ export const itemClass =
   'flex w-full flex-col items-start gap-0.5 rounded-md border border-ink-800 bg-ink-950/50 px-2.5 py-1.5 text-left text-xs transition-colors hover:border-accent/60 hover:bg-ink-850 focus-visible:border-accent';
 
 /**
- * The carrier tones' tonality (ECMA-418-1, carrierTonality as the batch CLI runs it): at the pinned
+ * The carrier tones' tonality (ECMA-418-1, and for sound pressure ISO/TS 20065 audibility, also above
+ * 11.2 kHz; carrierTonality as the batch CLI runs it): at the pinned
  * moment, else under the pointer, else where the strongest family peaks (the findings' own moment).
  */
 export function TonalityFinding() {
@@ -49,7 +50,7 @@ export function TonalityFinding() {
           <p className="font-mono text-mist-500">
             at {result.atS.toFixed(2)} s ({source}), ±0.5 s averaged
           </p>
-          {result.tones.length === 0 && <p className="text-mist-500">No carrier tone in 89.1–11 220 Hz (the scope of the tonality methods) to judge there.</p>}
+          {result.tones.length === 0 && <p className="text-mist-500">No carrier tone to judge there (ECMA-418-1 takes 89.1 Hz–11.2 kHz; above it, sound pressure is judged by its audibility).</p>}
           <ul className="flex flex-col gap-1" data-testid="tonality-tones">
             {result.tones.map((t) => (
               <li key={`${t.m}:${t.n}`}>
@@ -57,14 +58,26 @@ export function TonalityFinding() {
                   <span className="font-mono text-mist-100">
                     {familyLabel(t.m, t.n)} · {groupDigits(t.hz, 1)} Hz
                   </span>
-                  <span className="font-mono text-mist-300" data-testid="tone-tnr">
-                    TNR {db1(t.tnrDb)} dB <span className="text-mist-500">(limit {db1(t.tnrLimitDb)})</span> · PR {db1(t.prDb)} dB{' '}
-                    <span className="text-mist-500">(limit {db1(t.prLimitDb)})</span>{' '}
-                    {t.prominent ? <span className="text-accent">prominent</span> : <span className="text-mist-500">not prominent</span>}
-                  </span>
+                  {t.tnrDb !== null && t.prDb !== null ? (
+                    <span className="font-mono text-mist-300" data-testid="tone-tnr">
+                      TNR {db1(t.tnrDb)} dB <span className="text-mist-500">(limit {db1(t.tnrLimitDb ?? NaN)})</span> · PR {db1(t.prDb)} dB{' '}
+                      <span className="text-mist-500">(limit {db1(t.prLimitDb ?? NaN)})</span>{' '}
+                      {t.prominent ? <span className="text-accent">prominent</span> : <span className="text-mist-500">not prominent</span>}
+                    </span>
+                  ) : (
+                    <span className="font-mono text-mist-500" data-testid="tone-tnr-out-of-range" title="ECMA-418-1 defines TNR and PR from 89.1 Hz to 11.2 kHz">
+                      TNR, PR: not defined above 11.2 kHz
+                    </span>
+                  )}
                   {t.levelDb !== null && t.aboveThresholdDb !== null && (
                     <span className="font-mono text-mist-300">
                       {db1(t.levelDb)} dB SPL, {db1(Math.abs(t.aboveThresholdDb))} dB {t.aboveThresholdDb >= 0 ? 'above' : 'below'} the hearing threshold
+                    </span>
+                  )}
+                  {t.audibilityDb !== null && (
+                    <span className="font-mono text-mist-300" data-testid="tone-audibility">
+                      audibility {db1(t.audibilityDb)} dB{' '}
+                      <span className="text-mist-500">{t.audibilityDb > 0 ? 'over the masking noise' : 'under the masking noise'} (ISO/TS 20065)</span>
                     </span>
                   )}
                 </button>

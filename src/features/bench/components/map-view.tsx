@@ -83,6 +83,7 @@ export function MapView(props: Props) {
       }
     }
     if (n.guides && guidesRef.current) {
+      if (boxRef.current) boxRef.current.dataset.tonalPoints = String(p.tonal ? p.tonal.hz.filter(Number.isFinite).length : 0);
       paintGuides(guidesRef.current, { view, swapped: p.swapped, hasMap, lines: p.lines, against: p.against, frameTimes: p.frameTimes, frameRpm: p.frameRpm, dpr: dpr.current, tonal: p.tonal });
     }
     if ((n.cursor || n.guides) && cursorRef.current) {

@@ -8,6 +8,7 @@ import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import mysql from 'mysql2/promise';
+import { isAlive, sleep } from './process-state';
 
 export interface PrivateMariaDbOptions {
   /** Folder that holds data/, run/ and the error log, e.g. .data/mariadb-app */
@@ -31,16 +32,6 @@ function findBinary(name: string): string {
   throw new Error(`${name} not found: install Debian's mariadb-server (npm start does this with apt-get).`);
 }
 
-function isAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch {
-    return false;
-  }
-}
-
-const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
 export class PrivateMariaDb {
   readonly dataDir: string;

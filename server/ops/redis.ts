@@ -9,6 +9,7 @@ import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node
 import { connect } from 'node:net';
 import path from 'node:path';
 import { DATA_DIR } from '../config';
+import { isAlive, sleep } from './process-state';
 
 /** 36379 for `npm start` and `npm run dev`, 36380 for `npm test`, so both run side by side. */
 export const REDIS_PORTS = { app: 36379, test: 36380 } as const;
@@ -21,16 +22,6 @@ function findRedisServer(): string {
   throw new Error("redis-server not found: install Debian's redis-server (npm start does this with apt-get), or set REDIS_URL.");
 }
 
-function isAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch {
-    return false;
-  }
-}
-
-const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
 /** True when a Redis answers PING on 127.0.0.1:port within a second. */
 export function pingRedis(port: number): Promise<boolean> {

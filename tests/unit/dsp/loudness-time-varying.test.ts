@@ -2,7 +2,8 @@
 import { describe, expect, it } from 'vitest';
 import { timeVaryingLoudness } from '../../../workers/dsp/loudness';
 import { exceededLevel } from '../../../workers/dsp/loudness/time-varying';
-import { butterworthBandPass, filterSections } from '../../../workers/dsp/loudness/third-octave-filter-bank';
+import { filterSections } from '../../../workers/dsp/biquad';
+import { butterworthBandPass } from '../../../workers/dsp/loudness/third-octave-filter-bank';
 import { thirdOctaveBand } from '../../../workers/dsp/third-octave';
 
 const FS = 48000;

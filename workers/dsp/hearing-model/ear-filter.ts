@@ -9,6 +9,7 @@
  * References:
  *   [1] ECMA-418-2, 2nd edition, December 2022, clauses 5.1.2–5.1.3.
  */
+import { filterSections, type Biquad } from '../biquad';
 import { HMS_FS_HZ } from './filter-bank';
 
 /** One section: b0, b1, b2, a1, a2 (a0 = 1), ECMA-418-2 clause 5.1.3 [1] (from memory). */
@@ -17,6 +18,8 @@ const EAR_SECTIONS: readonly (readonly [number, number, number, number, number])
   [0.958943, -1.806088, 0.876438, -1.806088, 0.835381],
   [0.961372, -1.763632, 0.82153, -1.763632, 0.782902],
 ];
+
+const EAR_BIQUADS: Biquad[] = EAR_SECTIONS.map(([b0, b1, b2, a1, a2]) => ({ b0, b1, b2, a1, a2 }));
 
 /** Samples of the raised-cosine fade-in, ECMA-418-2 clause 5.1.2 [1] (from memory). */
 const FADE_IN_SAMPLES = 240;
@@ -29,20 +32,7 @@ export function fadeIn(x: Float64Array): void {
 
 /** Runs x (48 kHz) through the outer and middle/inner ear filter, ECMA-418-2 clause 5.1.3 [1]; returns a new array. */
 export function earFilter(x: Float64Array): Float64Array {
-  const y = Float64Array.from(x);
-  for (const [b0, b1, b2, a1, a2] of EAR_SECTIONS) {
-    // Transposed direct form II.
-    let s1 = 0;
-    let s2 = 0;
-    for (let n = 0; n < y.length; n++) {
-      const v = y[n];
-      const out = b0 * v + s1;
-      s1 = b1 * v - a1 * out + s2;
-      s2 = b2 * v - a2 * out;
-      y[n] = out;
-    }
-  }
-  return y;
+  return filterSections(x, EAR_BIQUADS);
 }
 
 /** |H(f)| of the ear filter at fHz, the product of the sections' magnitude responses at 48 kHz. */

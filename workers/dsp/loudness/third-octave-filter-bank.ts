@@ -13,16 +13,8 @@
  *   [2] A. V. Oppenheim, R. W. Schafer, Discrete-Time Signal Processing, 3rd ed., §7.1 (bilinear
  *       transform, pre-warping) — and the Butterworth poles, s_k = exp(jπ(2k + n + 1)/(2n)).
  */
+import { type Biquad } from '../biquad';
 import { thirdOctaveBand } from '../third-octave';
-
-/** One second-order section: y = (b0 + b1 z⁻¹ + b2 z⁻²)/(1 + a1 z⁻¹ + a2 z⁻²) · x. */
-export interface Biquad {
-  b0: number;
-  b1: number;
-  b2: number;
-  a1: number;
-  a2: number;
-}
 
 /** Band numbers x (IEC 61260-1, 0 = 1 kHz) of the 28 loudness bands 25 Hz … 12.5 kHz. */
 export const LOUDNESS_BAND_NUMBERS: readonly number[] = Object.freeze(Array.from({ length: 28 }, (_, i) => i - 16));
@@ -97,22 +89,6 @@ export function butterworthBandPass(loHz: number, hiHz: number, fsHz: number): B
   return sections;
 }
 
-/** Runs the sections over x (direct form II transposed) into a new array. */
-export function filterSections(x: ArrayLike<number>, sections: readonly Biquad[]): Float64Array {
-  const y = Float64Array.from(x);
-  for (const { b0, b1, b2, a1, a2 } of sections) {
-    let s1 = 0;
-    let s2 = 0;
-    for (let i = 0; i < y.length; i++) {
-      const v = y[i];
-      const out = b0 * v + s1;
-      s1 = b1 * v - a1 * out + s2;
-      s2 = b2 * v - a2 * out;
-      y[i] = out;
-    }
-  }
-  return y;
-}
 
 /**
  * The 28 loudness bands' filters at fsHz; a band whose upper edge is not below 0.95·fs/2 gets null

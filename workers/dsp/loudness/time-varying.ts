@@ -15,7 +15,8 @@
 import { REF_SOUND_PRESSURE_PA } from '../levels';
 import { LOUDNESS_BAND_NOMINAL_HZ } from './iso532-1-tables';
 import { coreLoudness, type SoundField, specificFromCore, stationaryLoudness } from './stationary';
-import { filterSections, loudnessFilterBank } from './third-octave-filter-bank';
+import { filterSections } from '../biquad';
+import { loudnessFilterBank } from './third-octave-filter-bank';
 
 /** Time step of the loudness computation (s), ISO 532-1 clause 6 [1]. */
 export const LOUDNESS_STEP_S = 0.002;

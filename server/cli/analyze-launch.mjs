@@ -83,9 +83,12 @@ async function build() {
   writeFileSync(tmp, JSON.stringify({ version: BUILD_VERSION, dir, inputs }));
   renameSync(tmp, manifestFile);
   // Older builds go once nothing can still be starting from them.
+  // Another process may be removing the same old folder at the same moment: one that is gone is skipped.
   for (const old of readdirSync(cacheDir)) {
     const at = path.join(cacheDir, old);
-    if (old.startsWith('build-') && old !== dir && Date.now() - statSync(at).mtimeMs > 10 * 60_000) rmSync(at, { recursive: true, force: true });
+    if (!old.startsWith('build-') || old === dir) continue;
+    const mtimeMs = statSync(at, { throwIfNoEntry: false })?.mtimeMs;
+    if (mtimeMs !== undefined && Date.now() - mtimeMs > 10 * 60_000) rmSync(at, { recursive: true, force: true });
   }
   return outdir;
 }

@@ -30,6 +30,8 @@ interface VitestJsonReport {
   numFailedTests: number;
   numPendingTests?: number;
   numTodoTests?: number;
+  /** Files that failed as a whole (an error while loading or in a hook), whose tests never ran */
+  numFailedTestSuites?: number;
 }
 
 const bin = (name: string) => path.join(PROJECT_ROOT, 'node_modules', '.bin', name);
@@ -70,14 +72,16 @@ const vitest = await run(
 let passed = 0;
 let failed = 0;
 let skipped = 0;
+let brokenFiles = 0;
 if (existsSync(report)) {
   const r = JSON.parse(readFileSync(report, 'utf8')) as VitestJsonReport;
   passed = r.numPassedTests;
   failed = r.numFailedTests;
   skipped = (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
+  brokenFiles = r.numFailedTestSuites ?? 0;
 } else if (vitest !== 0) {
   console.error('fanlight test: vitest wrote no report');
 }
 if (lint !== 0) console.error('fanlight test: lint failed, so the run fails (`npm run lint` to see why)');
-console.log(`tests: ${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
+console.log(`tests: ${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}${brokenFiles ? `; ${brokenFiles} test files failed as a whole (see above)` : ''}`);
 await shutdown(vitest !== 0 || typecheck !== 0 || lint !== 0 || failed > 0 ? 1 : 0);

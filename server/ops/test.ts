@@ -30,7 +30,7 @@ interface VitestJsonReport {
   numFailedTests: number;
   numPendingTests?: number;
   numTodoTests?: number;
-  /** Files that failed as a whole (an error while loading or in a hook), whose tests never ran */
+  /** Files and describe blocks that failed (with a failed test in them, or as a whole: a load or hook error) */
   numFailedTestSuites?: number;
 }
 
@@ -78,10 +78,11 @@ if (existsSync(report)) {
   passed = r.numPassedTests;
   failed = r.numFailedTests;
   skipped = (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
-  brokenFiles = r.numFailedTestSuites ?? 0;
+  // suites fail with their failed tests; with none failed, they failed as a whole (load or hook errors)
+  brokenFiles = failed === 0 ? (r.numFailedTestSuites ?? 0) : 0;
 } else if (vitest !== 0) {
   console.error('fanlight test: vitest wrote no report');
 }
 if (lint !== 0) console.error('fanlight test: lint failed, so the run fails (`npm run lint` to see why)');
-console.log(`tests: ${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}${brokenFiles ? `; ${brokenFiles} test files failed as a whole (see above)` : ''}`);
+console.log(`tests: ${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}${brokenFiles ? `; ${brokenFiles} test files or blocks failed as a whole (see above)` : ''}`);
 await shutdown(vitest !== 0 || typecheck !== 0 || lint !== 0 || failed > 0 ? 1 : 0);

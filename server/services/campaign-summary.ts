@@ -62,7 +62,7 @@ function strongest(inv: Loose): CampaignResultSummary['strongestFamilies'] {
   return families.sort((a, b) => b.peakDb - a.peakDb).slice(0, SUMMARY_FAMILIES);
 }
 
-/** `overallDb` as `analyze levels` prints it, at the top or under `levels`; the inverter report itself has none. */
+/** `overallDb` at the top (the inverter report gives it: the RMS over the run in dB re 1 unit) or under `levels`. */
 function overallDb(inv: Loose): number | null {
   const direct = finite(inv.overallDb);
   if (direct !== null) return direct;

@@ -80,6 +80,21 @@ export interface InverterReport {
   strongestFamilies: { m: number; n: number; peakRms: number; peakRpm: number; explained: boolean | null }[];
   /** ECMA-418-1 tonality of the strongest carrier tones at one moment */
   tonality: { atS: number; tones: ToneFinding[] };
+  /** The channel's RMS over the whole map, in its units, and as a level in dB re 1 unit */
+  overallRms: number;
+  overallDb: number | null;
+}
+
+/**
+ * The RMS of the whole map: each frame's mean square is the sum of its bins' mean squares over the
+ * window's equivalent noise bandwidth in bins (Parseval for a windowed DFT, Harris, Proc. IEEE 66
+ * (1978) §IV), averaged over the frames.
+ */
+export function overallRms(power: Float32Array, layout: StftLayout, enbwBins: number): number {
+  if (layout.frames === 0) return 0;
+  let sum = 0;
+  for (let i = 0; i < layout.frames * layout.bins; i++) sum += power[i];
+  return Math.sqrt(sum / enbwBins / layout.frames);
 }
 
 const round = (x: number, digits = 6) => (Number.isFinite(x) ? Number(x.toPrecision(digits)) : x);
@@ -178,6 +193,7 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
     atS = times[best] ?? 0;
   }
   const tonality = carrierTonality(power, layout, input.enbwBins, ctx, atS, familyList, input.soundPressure ?? false);
+  const rms = overallRms(power, layout, input.enbwBins);
 
   return {
     tonality: {
@@ -195,6 +211,8 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
       })),
     },
     carrier: { t: times.map((t) => round(t)), hz: Array.from(carrier.hz, (h) => round(h)) },
+    overallRms: round(rms),
+    overallDb: rms > 0 ? round(20 * Math.log10(rms), 5) : null,
     carrierShifts: shifts.map((s) => ({ t: round(s.t), rpm: round(s.rpm), fromHz: round(s.fromHz), toHz: round(s.toHz) })),
     carrierSpreadHz: spread === null ? null : round(spread),
     polePairs: pole,

@@ -40,6 +40,16 @@ describe('the Bench takes a recording in (browser)', () => {
     await expect.poll(() => entry.count(), { timeout: 20_000 }).toBe(1);
     await expect.poll(() => rows.count(), { timeout: 20_000 }).toBe(4);
     expect(await page.getByLabel('Name of channel 1').inputValue()).toBe('acc inverter housing');
+    // the library's copy is a file of the Origin Private File System, whole, with no partial copy beside it
+    const fingerprint = await entry.getAttribute('data-fingerprint');
+    const kept = await page.evaluate(async (fp) => {
+      const dir = await (await navigator.storage.getDirectory()).getDirectoryHandle('recordings');
+      const names: string[] = [];
+      for await (const name of (dir as unknown as { keys(): AsyncIterable<string> }).keys()) names.push(name);
+      return { names, size: (await (await dir.getFileHandle(fp!)).getFile()).size };
+    }, fingerprint);
+    expect(kept.size).toBe(bytes.byteLength);
+    expect(kept.names.filter((n) => n.endsWith('.partial'))).toEqual([]);
     expect(errors).toEqual([]);
     await context.close();
   });

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { formatDateTime, formatMegabytes, formatSeconds } from '../../../lib/format';
-import { useLibrary, useRemoveFromLibrary, useStorageEstimate } from '../../library/api/library';
+import { useCopyProgress, useLibrary, useRemoveFromLibrary, useStorageEstimate } from '../../library/api/library';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import { demoSetup, fetchDemoRecording, useDemoRecordings } from '../api/demo-recordings';
 import { BenchPanel } from './bench-panel';
@@ -103,6 +103,18 @@ function DemoRecordings({
   );
 }
 
+/** The copy of a dropped file into the library, while it runs (it goes on in the background). */
+function CopyState({ fingerprint }: { fingerprint: string }) {
+  const p = useCopyProgress(fingerprint);
+  if (!p) return null;
+  const percent = p.total > 0 ? Math.floor((100 * p.done) / p.total) : 100;
+  return (
+    <p className="text-xs text-mist-300" role="status" data-testid="library-copying">
+      keeping a copy in this browser… <span className="font-mono">{percent} %</span> ({formatMegabytes(p.done)} of {formatMegabytes(p.total)})
+    </p>
+  );
+}
+
 export function LibraryPanel({ openFingerprint, busy, onOpen, onOpenFile, onRemoved, onCompare, onCompareDemo, onComparePair, compared = [] }: LibraryPanelProps) {
   const { data: entries, isPending, error } = useLibrary();
   const { data: storage } = useStorageEstimate();
@@ -158,6 +170,7 @@ export function LibraryPanel({ openFingerprint, busy, onOpen, onOpenFile, onRemo
                     <p className="text-xs text-mist-500">
                       added <time dateTime={e.addedAt} className="font-mono">{formatDateTime(e.addedAt)}</time>
                     </p>
+                    {e.copying && <CopyState fingerprint={e.fingerprint} />}
                   </div>
                   {onCompare && !isOpen && (
                     <Button

@@ -3,7 +3,7 @@ import type { DecodedWithFingerprint } from '../../../../workers/decode.worker';
 import { defaultSetup, type ChannelSetup } from '../../../../workers/io/channel-setup';
 import type { CsvOptions } from '../../../../workers/io/recording';
 import { DecodeFailure, decodeInWorker } from '../../../lib/workers/decode-client';
-import { useAddToLibrary } from '../../library/api/library';
+import { useKeepInLibrary } from '../../library/api/library';
 import { getEntry, getFile, type LibraryEntry } from '../../library/api/library-store';
 import { errorMessage } from '../../../lib/error-message';
 
@@ -59,9 +59,9 @@ export function useRecordingReader(onOpened?: (entry: LibraryEntry) => void) {
   const [prompt, setPrompt] = useState<RatePrompt | null>(null);
   const [notice, setNotice] = useState<ReaderNotice | null>(null);
   const current = useRef<{ cancel(): void } | null>(null);
-  const addToLibrary = useAddToLibrary();
-  const addRef = useRef(addToLibrary.mutateAsync);
-  addRef.current = addToLibrary.mutateAsync;
+  const keepInLibrary = useKeepInLibrary();
+  const keepRef = useRef(keepInLibrary.mutateAsync);
+  keepRef.current = keepInLibrary.mutateAsync;
   const openedRef = useRef(onOpened);
   openedRef.current = onOpened;
 
@@ -97,7 +97,9 @@ export function useRecordingReader(onOpened?: (entry: LibraryEntry) => void) {
     if (current.current !== job) return;
     performance.mark('fanlight:decoded');
     try {
-      const entry = await addRef.current({ entry: entryFrom(decoded, fileName, csv, setup), file });
+      const { entry, copied } = await keepRef.current({ entry: entryFrom(decoded, fileName, csv, setup), file });
+      // the recording opens now; its copy into the library goes on in the background
+      copied.catch((e: unknown) => setNotice({ tone: 'error', fileName, message: errorMessage(e) }));
       if (current.current !== job) return;
       performance.mark('fanlight:stored');
       setOpen({ entry, decoded });

@@ -1,13 +1,16 @@
 /**
- * The local library: recordings kept in this browser's IndexedDB. Descriptions and files sit in two
- * databases, so listing the library never loads a file.
+ * The local library: recordings kept in this browser. Descriptions sit in IndexedDB, files in the
+ * Origin Private File System (file-store.ts), so listing the library never loads a file. A dropped file
+ * is described at once and copied in the background; the copy's end clears the entry's `copying` mark,
+ * and a copy that fails or is cut off by a closed page leaves no entry and no file behind.
  */
-import { createStore, del, get, promisifyRequest, set, values, type UseStore } from 'idb-keyval';
+import { createStore, del, get, set, values, type UseStore } from 'idb-keyval';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import type { SpeedSource } from '../../../../workers/io/speed-source';
 import type { ChannelInfo, CsvOptions, RecordingFormat } from '../../../../workers/io/recording';
 import { formatMegabytes } from '../../../lib/format';
 import { errorMessage } from '../../../lib/error-message';
+import { copyProgress, deleteFile, hasFile, readFile, removeLeftovers, storeFile } from './file-store';
 
 export interface LibraryEntry {
   fingerprint: string;
@@ -25,6 +28,8 @@ export interface LibraryEntry {
   csv?: CsvOptions;
   /** The speed source chosen on the Bench; absent, the Bench picks one from the setup */
   speedSource?: SpeedSource;
+  /** Its file is being copied into the library now */
+  copying?: boolean;
 }
 
 export interface StorageEstimate {
@@ -39,70 +44,91 @@ export class LibraryError extends Error {
   }
 }
 
-let stores: { entries: UseStore; files: UseStore } | null = null;
+let stores: { entries: UseStore } | null = null;
 
 // Opened on first use, so importing this module never touches IndexedDB.
 function db() {
-  stores ??= {
-    entries: createStore('fanlight-library', 'recordings'),
-    files: createStore('fanlight-library-files', 'files'),
-  };
+  stores ??= { entries: createStore('fanlight-library', 'recordings') };
   return stores;
 }
 
-/** Newest first. */
+/** Newest first. Entries whose copy was cut off (a page closed mid-copy) are removed, with their partial files. */
 export async function listLibrary(): Promise<LibraryEntry[]> {
   const all = await values<LibraryEntry>(db().entries);
-  return all.sort((a, b) => b.addedAt.localeCompare(a.addedAt));
+  const cutOff = all.filter((e) => e.copying && !copyProgress.get(e.fingerprint));
+  await Promise.all(cutOff.map((e) => del(e.fingerprint, db().entries).catch(() => undefined)));
+  const kept = all.filter((e) => !cutOff.includes(e));
+  await removeLeftovers(new Set(kept.map((e) => e.fingerprint))).catch(() => undefined);
+  return kept.sort((a, b) => b.addedAt.localeCompare(a.addedAt));
 }
 
 export const getEntry = (fingerprint: string) => get<LibraryEntry>(fingerprint, db().entries);
 
-export const getFile = (fingerprint: string) => get<Blob>(fingerprint, db().files);
-
-async function hasFile(fingerprint: string): Promise<boolean> {
-  return (await db().files('readonly', (store) => promisifyRequest(store.count(fingerprint)))) > 0;
-}
+export const getFile = (fingerprint: string) => readFile(fingerprint);
 
 function sameChannels(setup: ChannelSetup[], channels: ChannelInfo[]): boolean {
   return setup.length === channels.length && setup.every((s, i) => s.index === channels[i].index);
 }
 
+const noRoom = (entry: LibraryEntry, e: unknown) =>
+  new LibraryError(
+    `There is no room left in this browser's storage for ${entry.name} (${formatMegabytes(entry.sizeBytes)}). Delete recordings from the library, or free space, and drop it again.`,
+    { cause: e },
+  );
+
+const notKept = (entry: LibraryEntry, e: unknown) =>
+  isQuotaError(e) ? noRoom(entry, e) : new LibraryError(`${entry.name} could not be kept in the library: ${describe(e)}`, { cause: e });
+
 /**
- * Keeps the file and its description. A recording already in the library keeps its setup, its speed
- * source and the date it was first added (unless it now reads as other channels, e.g. a CSV read with
- * other options). Returns the entry as stored.
+ * Keeps the file and its description: the description at once (returned as stored), the file copied in
+ * the background (`copied` settles when it is in). A recording already in the library keeps its setup,
+ * its speed source and the date it was first added (unless it now reads as other channels, e.g. a CSV
+ * read with other options). A failed copy removes the new description again and rejects `copied`.
  */
-export async function addToLibrary(entry: LibraryEntry, file: Blob): Promise<LibraryEntry> {
-  const { entries, files } = db();
+export async function keepInLibrary(entry: LibraryEntry, file: Blob): Promise<{ entry: LibraryEntry; copied: Promise<void> }> {
+  const { entries } = db();
   const fp = entry.fingerprint;
   const old = await getEntry(fp);
   const same = old !== undefined && sameChannels(old.setup, entry.channels);
+  const { copying: _copying, ...oldKept } = old ?? ({} as Partial<LibraryEntry>);
   const stored: LibraryEntry = old
     ? {
         ...entry,
         setup: same ? old.setup : entry.setup,
-        ...(same && old.speedSource && !entry.speedSource ? { speedSource: old.speedSource } : {}),
+        ...(same && oldKept.speedSource && !entry.speedSource ? { speedSource: oldKept.speedSource } : {}),
         addedAt: old.addedAt,
       }
     : entry;
-  const fileWasThere = await hasFile(fp);
+  const fileWasThere = await hasFile(fp).catch(() => false);
   try {
-    if (!fileWasThere) await set(fp, file, files);
-    await set(fp, stored, entries);
+    await set(fp, fileWasThere ? stored : { ...stored, copying: true }, entries);
   } catch (e) {
-    // Two databases, so no one transaction: undo by hand whatever this call may have written.
-    if (!fileWasThere) await del(fp, files).catch(() => undefined);
-    if (!old) await del(fp, entries).catch(() => undefined);
-    if (isQuotaError(e)) {
-      throw new LibraryError(
-        `There is no room left in this browser's storage for ${entry.name} (${formatMegabytes(entry.sizeBytes)}). Delete recordings from the library, or free space, and drop it again.`,
-        { cause: e },
-      );
-    }
-    throw new LibraryError(`${entry.name} could not be kept in the library: ${describe(e)}`, { cause: e });
+    throw notKept(entry, e);
   }
-  return stored;
+  if (fileWasThere) return { entry: stored, copied: Promise.resolve() };
+  const copied = storeFile(fp, file).then(
+    async () => {
+      const now = await getEntry(fp);
+      if (now) {
+        const { copying: _done, ...rest } = now;
+        await set(fp, rest, entries);
+      }
+    },
+    async (e: unknown) => {
+      // nothing half-stored: the description goes too (or back to what it was)
+      await (old ? set(fp, old, entries) : del(fp, entries)).catch(() => undefined);
+      throw notKept(entry, e);
+    },
+  );
+  copied.catch(() => undefined);
+  return { entry: stored, copied };
+}
+
+/** Keeps the file and its description, and waits for the copy (a file added only for a comparison). */
+export async function addToLibrary(entry: LibraryEntry, file: Blob): Promise<LibraryEntry> {
+  const kept = await keepInLibrary(entry, file);
+  await kept.copied;
+  return kept.entry;
 }
 
 /** Changes a stored entry; `what` names the change in the errors ("setup", "speed source"). */
@@ -131,8 +157,7 @@ export const updateSpeedSource = (fingerprint: string, speedSource: SpeedSource 
   changeEntry(fingerprint, 'speed source', ({ speedSource: _old, ...e }) => (speedSource ? { ...e, speedSource } : e));
 
 export async function removeFromLibrary(fingerprint: string): Promise<void> {
-  const { entries, files } = db();
-  await Promise.all([del(fingerprint, entries), del(fingerprint, files)]);
+  await Promise.all([del(fingerprint, db().entries), deleteFile(fingerprint)]);
 }
 
 export async function storageEstimate(): Promise<StorageEstimate | null> {

@@ -1,8 +1,9 @@
+import { useSyncExternalStore } from 'react';
 import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { ChannelSetup } from '../../../../workers/io/channel-setup';
 import type { SpeedSource } from '../../../../workers/io/speed-source';
 import {
-  addToLibrary,
+  keepInLibrary,
   listLibrary,
   removeFromLibrary,
   storageEstimate,
@@ -10,6 +11,7 @@ import {
   updateSpeedSource,
   type LibraryEntry,
 } from './library-store';
+import { copyProgress, type CopyProgress } from './file-store';
 
 // Descriptions only: the files and the decoded samples never enter the query cache.
 export const libraryKeys = {
@@ -31,10 +33,18 @@ export const useStorageEstimate = () => useQuery(storageQuery);
 
 const refreshLibrary = (qc: QueryClient) => qc.invalidateQueries({ queryKey: libraryKeys.all });
 
-export function useAddToLibrary() {
+/** Keeps a dropped file: its description at once, its copy in the background (the list follows both). */
+export function useKeepInLibrary() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: ({ entry, file }: { entry: LibraryEntry; file: Blob }) => addToLibrary(entry, file),
+    mutationFn: async ({ entry, file }: { entry: LibraryEntry; file: Blob }) => {
+      const kept = await keepInLibrary(entry, file);
+      kept.copied.then(
+        () => refreshLibrary(qc),
+        () => refreshLibrary(qc),
+      );
+      return kept;
+    },
     onSettled: () => refreshLibrary(qc),
   });
 }
@@ -63,3 +73,7 @@ export function useRemoveFromLibrary() {
     onSettled: () => refreshLibrary(qc),
   });
 }
+
+/** How far the copy of a recording into the library has come (null when none is running). */
+export const useCopyProgress = (fingerprint: string): CopyProgress | null =>
+  useSyncExternalStore(copyProgress.subscribe, () => copyProgress.get(fingerprint));

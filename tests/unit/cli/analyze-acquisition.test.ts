@@ -1,22 +1,12 @@
 /** `analyze info` on files from acquisition systems (MAT, HDF5, UFF), through the same path as WAV/CSV. */
-import { execFile } from 'node:child_process';
 import path from 'node:path';
-import { promisify } from 'node:util';
 import { describe, expect, it } from 'vitest';
 import { PROJECT_ROOT } from '../../../server/config';
+import { analyzeCli } from '../../support/run-analyze';
 
-const run = promisify(execFile);
 const fixture = (name: string) => path.join(PROJECT_ROOT, 'tests/fixtures/acquisition', name);
 
-async function analyze(...args: string[]) {
-  try {
-    const { stdout, stderr } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT });
-    return { code: 0, stdout, stderr };
-  } catch (e) {
-    const err = e as { code: number; stdout: string; stderr: string };
-    return { code: err.code, stdout: err.stdout, stderr: err.stderr };
-  }
-}
+const analyze = analyzeCli;
 
 describe('npm run -s analyze -- info on MAT, HDF5 and UFF', () => {
   it('reads a level 5 MAT-file', async () => {

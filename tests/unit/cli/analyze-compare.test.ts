@@ -15,6 +15,7 @@ import { describe, expect, it } from 'vitest';
 import { synthesiseDrive, synthesiseTacho } from '../../../seeds/synthetic-drive';
 import { PROJECT_ROOT } from '../../../server/config';
 import { writeWav } from '../../../workers/io/wav-writer';
+import { analyzeCli } from '../../support/run-analyze';
 
 const run = promisify(execFile);
 const FS = 51200;
@@ -52,10 +53,7 @@ writeRun(after, 6000, 2, 10 ** (-3 / 20), 22);
 const target = path.join(dir, 'target.csv');
 writeFileSync(target, `track,rpm,db\nfamily:1:1,1000,${familyDb + 10}\nfamily:1:1,3000,${familyDb + 10}\nfamily:1:1,5000,${familyDb - 10}\nfamily:1:1,9000,${familyDb - 10}\n`);
 
-async function analyze(...args: string[]) {
-  const { stdout } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT, maxBuffer: 64 << 20 });
-  return JSON.parse(stdout);
-}
+const analyze = async (...args: string[]) => (await analyzeCli(...args)).json;
 
 const median = (xs: number[]) => {
   const s = xs.filter(Number.isFinite).sort((a, b) => a - b);

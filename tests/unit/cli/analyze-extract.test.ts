@@ -4,20 +4,17 @@
  * time signals come back each within 20 dB SNR of the truth (the Vold–Kalman filter's separation of
  * crossing components: Vold & Leuridan, SAE 931288, 1993), and --remove leaves the rest.
  */
-import { execFile } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { promisify } from 'node:util';
 import { describe, expect, it } from 'vitest';
 import { synthesiseTacho } from '../../../seeds/synthetic-drive';
-import { PROJECT_ROOT } from '../../../server/config';
 import { decodeRecording } from '../../../workers/io/decode-recording';
 import { memorySource } from '../../../workers/io/byte-source';
 import { writeWav } from '../../../workers/io/wav-writer';
 import { snrDb, tone } from '../../support/tones';
+import { analyzeCli } from '../../support/run-analyze';
 
-const run = promisify(execFile);
 const FS = 25600;
 const T = 4;
 const N = FS * T;
@@ -25,15 +22,7 @@ const rpm = (t: number) => 1000 + 750 * t; // 1000 → 4000 rpm
 const P = 4;
 const FC = 3000;
 
-async function analyze(...args: string[]) {
-  try {
-    const { stdout, stderr } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT, maxBuffer: 64 * 1024 * 1024 });
-    return { code: 0, stdout, stderr };
-  } catch (e) {
-    const err = e as { code: number; stdout: string; stderr: string };
-    return { code: err.code, stdout: err.stdout, stderr: err.stderr };
-  }
-}
+const analyze = analyzeCli;
 
 async function readWav(file: string): Promise<Float32Array[]> {
   return (await decodeRecording(memorySource(new Uint8Array(readFileSync(file))))).samples;

@@ -1,25 +1,14 @@
 /** The batch command as a user runs it: `npm run -s analyze -- info FILE`, in a child process. */
-import { execFile } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { promisify } from 'node:util';
 import { describe, expect, it } from 'vitest';
-import { PROJECT_ROOT } from '../../../server/config';
 import { testChannels, wav } from '../io/wav-fixtures';
+import { analyzeCli } from '../../support/run-analyze';
 
-const run = promisify(execFile);
 const dir = mkdtempSync(path.join(tmpdir(), 'fanlight-cli-'));
 
-async function analyze(...args: string[]) {
-  try {
-    const { stdout, stderr } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT });
-    return { code: 0, stdout, stderr };
-  } catch (e) {
-    const err = e as { code: number; stdout: string; stderr: string };
-    return { code: err.code, stdout: err.stdout, stderr: err.stderr };
-  }
-}
+const analyze = analyzeCli;
 
 describe('npm run -s analyze -- info', () => {
   it('prints the contract JSON for a 4-channel 24-bit WAV', async () => {

@@ -8,6 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { synthesiseDrive, synthesiseTacho } from '../../../seeds/synthetic-drive';
 import { PROJECT_ROOT } from '../../../server/config';
 import { writeWav } from '../../../workers/io/wav-writer';
+import { analyzeCli } from '../../support/run-analyze';
 
 const run = promisify(execFile);
 const FS = 51200;
@@ -46,15 +47,12 @@ writeRunUp(onePairFile, {
   seed: 13,
 });
 
-async function analyze(...args: string[]) {
-  const { stdout } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT, maxBuffer: 64 << 20 });
-  return JSON.parse(stdout);
-}
+const analyze = async (...args: string[]) => (await analyzeCli(...args)).json;
 
 describe('analyze inverter', () => {
   it('prints carrier, shifts, spread, pole pairs, orders and families in the fixed shape', async () => {
     const r = await analyze('inverter', file, '--channel', '0', '--tacho', '1', '--ppr', '60', '--orders', '8,48', '--cal', '9.80665');
-    expect(Object.keys(r).sort()).toEqual(['carrier', 'carrierShifts', 'carrierSpreadHz', 'families', 'orders', 'polePairs', 'strongestFamilies', 'tonality']);
+    expect(Object.keys(r).sort()).toEqual(['carrier', 'carrierShifts', 'carrierSpreadHz', 'families', 'orders', 'overallDb', 'overallRms', 'polePairs', 'strongestFamilies', 'tonality']);
     expect(r.carrier.t.length).toBe(r.carrier.hz.length);
     expect(r.carrierShifts).toHaveLength(1);
     expect(Math.abs(r.carrierShifts[0].rpm - 5000) / 5000).toBeLessThan(0.02);

@@ -1,28 +1,17 @@
 /** `analyze sound` as a user runs it (`npm run -s analyze -- sound …`), on a tone file made here. */
-import { execFile } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { promisify } from 'node:util';
 import { describe, expect, it } from 'vitest';
-import { PROJECT_ROOT } from '../../../server/config';
 import { hearingThresholdDb } from '../../../workers/dsp/hearing-threshold';
 import { loudnessLevelPhon } from '../../../workers/dsp/loudness';
 import { wav } from '../io/wav-fixtures';
+import { analyzeCli } from '../../support/run-analyze';
 
-const run = promisify(execFile);
 const dir = mkdtempSync(path.join(tmpdir(), 'fanlight-cli-sound-'));
 const FS = 48000;
 
-async function analyze(...args: string[]) {
-  try {
-    const { stdout, stderr } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT, maxBuffer: 64 << 20 });
-    return { code: 0, stdout, stderr, json: JSON.parse(stdout) };
-  } catch (e) {
-    const err = e as { code: number; stdout: string; stderr: string };
-    return { code: err.code, stdout: err.stdout, stderr: err.stderr, json: null };
-  }
-}
+const analyze = analyzeCli;
 
 // A 1 kHz tone of 0.5 full scale for 3 s; with --cal K the channel reads 60 dB re 20 µPa:
 // p_rms = 0.5/√2 · K = 20 µPa · 10^(60/20) = 0.02 Pa.

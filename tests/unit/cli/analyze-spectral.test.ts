@@ -1,26 +1,15 @@
 /** The spectral batch commands as a user runs them (`npm run -s analyze -- …`), on files made here. */
-import { execFile } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { promisify } from 'node:util';
 import { describe, expect, it } from 'vitest';
-import { PROJECT_ROOT } from '../../../server/config';
 import { wav } from '../io/wav-fixtures';
+import { analyzeCli } from '../../support/run-analyze';
 
-const run = promisify(execFile);
 const dir = mkdtempSync(path.join(tmpdir(), 'fanlight-cli-spectral-'));
 const FS = 51200;
 
-async function analyze(...args: string[]) {
-  try {
-    const { stdout, stderr } = await run('npm', ['run', '-s', 'analyze', '--', ...args], { cwd: PROJECT_ROOT, maxBuffer: 64 << 20 });
-    return { code: 0, stdout, stderr, json: JSON.parse(stdout) };
-  } catch (e) {
-    const err = e as { code: number; stdout: string; stderr: string };
-    return { code: err.code, stdout: err.stdout, stderr: err.stderr, json: null };
-  }
-}
+const analyze = analyzeCli;
 
 // Channel 0: a 1 kHz sine of amplitude 0.5 full scale. Channel 1: a 60-pulse tacho at a steady 1500 rpm.
 const seconds = 4;

@@ -106,6 +106,12 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
   const times = Array.from({ length: layout.frames }, (_, f) => frameTimeS(layout, f));
   const shifts = carrierShifts(carrier.hz, (f) => frameTimeS(layout, f), frameRpm, layout.binHz);
 
+  // Spread: measured frame by frame (every second frame where the carrier is known); lines on a comb of
+  // the shaft frequency around fc are sidebands, not spread
+  const withCarrier = times.map((_, f) => f).filter((f) => f % 2 === 0 && Number.isFinite(carrier.hz[f]));
+  const frHz = Float64Array.from(frameRpm, (r) => r / 60);
+  const spread = runSpreadHz(power, layout.bins, layout.binHz, carrier.hz, withCarrier, frHz);
+
   let pole: InverterReport['polePairs'];
   if (input.polePairs) pole = { value: input.polePairs, source: 'given', pattern: null, ambiguous: false, settledByChannel: false };
   else {
@@ -117,9 +123,13 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
     const electrical = input.expectedPattern === 'm+n odd' || (!input.expectedPattern && fromSidebands.pattern === 'm+n odd');
     const fundamental = electrical ? polePairsFromFundamental(power, layout, carrier.hz, frameRpm, 12) : null;
     const rpms = Array.from(frameRpm).filter((r) => r > 0).sort((a, b) => a - b);
-    const frHz = (rpms[rpms.length >> 1] ?? NaN) / 60;
-    const est = withFundamental(fromSidebands, fundamental?.polePairs ?? null, Math.max(0.35, layout.binHz / (2 * frHz)));
+    const medianFrHz = (rpms[rpms.length >> 1] ?? NaN) / 60;
+    const est = withFundamental(fromSidebands, fundamental?.polePairs ?? null, Math.max(0.35, layout.binHz / (2 * medianFrHz)));
     pole = { value: est.value, source: 'inferred', pattern: est.pattern, ambiguous: est.ambiguous, settledByChannel: est.settledByChannel };
+    // A spread carrier smears every sideband over its sweep, so their offsets read as whatever comb fits
+    // the smear best: without the fundamental's own line, the pole pairs are not told (common practice:
+    // the sideband spacing is read on a steady carrier)
+    if (spread !== null && !fundamental?.polePairs) pole = { value: null, source: 'inferred', pattern: null, ambiguous: false, settledByChannel: false };
   }
   // With the pole pairs given, the pattern still comes from the offsets when they show one
   if (input.polePairs) {
@@ -127,11 +137,6 @@ export function analyseInverter(input: InverterAnalysisInput): InverterReport {
     if (est.value === input.polePairs) pole.pattern = est.pattern;
   }
 
-  // Spread: measured frame by frame (every second frame where the carrier is known); lines on a comb of
-  // the shaft frequency around fc are sidebands, not spread
-  const withCarrier = times.map((_, f) => f).filter((f) => f % 2 === 0 && Number.isFinite(carrier.hz[f]));
-  const frHz = Float64Array.from(frameRpm, (r) => r / 60);
-  const spread = runSpreadHz(power, layout.bins, layout.binHz, carrier.hz, withCarrier, frHz);
 
   const ctx = { rpm: frameRpm, carrierHz: carrier.hz, polePairs: pole.value ?? NaN };
   const familyList = input.families ?? [...TONE_FAMILIES];

@@ -267,7 +267,12 @@ describe('a spread carrier', async () => {
   });
 
   it('says the pole pairs cannot be told from smeared sidebands, rather than guessing', () => {
-    expect(report.polePairs.value === null || report.polePairs.ambiguous).toBe(true);
+    expect(report.polePairs).toMatchObject({ value: null, pattern: null });
+  });
+
+  it('does not guess them either when the channel names its pattern (a force-driven vibration)', async () => {
+    const { report: vibration } = await analyse(x, rpm, { expectedPattern: 'm+n even' });
+    expect(vibration.polePairs).toMatchObject({ value: null, pattern: null });
   });
 });
 

@@ -2,6 +2,7 @@
  * The theme each user chose, kept in this browser (per user, and the last one for the sign-in page), set
  * on <html data-theme>. The tokens' values are injected once from src/config/theme.ts.
  */
+import { useSyncExternalStore } from 'react';
 import { themeCss, type ThemeName } from '../config/theme';
 
 const LAST = 'fanlight.theme.last';
@@ -40,3 +41,13 @@ export function chooseTheme(userId: number | null, theme: ThemeName): void {
     // private mode: this visit only
   }
 }
+
+const subscribeTheme = (onChange: () => void) => {
+  const observer = new MutationObserver(onChange);
+  observer.observe(document.documentElement, { attributes: true, attributeFilter: ['data-theme'] });
+  return () => observer.disconnect();
+};
+const currentTheme = () => document.documentElement.dataset.theme ?? 'dark';
+
+/** The theme shown now, re-rendering on a switch (canvases and plots draw again: they do not follow CSS). */
+export const useThemeShown = (): string => useSyncExternalStore(subscribeTheme, currentTheme, () => 'dark');

@@ -1,7 +1,8 @@
 import { useEffect, useRef, useState, type PointerEvent } from 'react';
 import type { BandLevel } from '../analysis/spectra';
 import { ticks } from '../../../lib/plot/axis-ticks';
-import { palette } from '../../../config/theme';
+import { palette, themeColour } from '../../../config/theme';
+import { useThemeShown } from '../../../lib/theme-preference';
 
 const labelled = new Set([31.5, 63, 125, 250, 500, 1000, 2000, 4000, 8000, 16000]);
 const shortHz = (hz: number) => (hz >= 1000 ? `${hz / 1000}k` : String(hz));
@@ -11,6 +12,7 @@ export function BandBars({ bands, unit }: { bands: BandLevel[]; unit: string }) 
   const ref = useRef<HTMLCanvasElement>(null);
   const [hover, setHover] = useState<number | null>(null);
   const geometry = useRef({ left: 0, barW: 0 });
+  const theme = useThemeShown();
 
   useEffect(() => {
     const canvas = ref.current;
@@ -34,10 +36,10 @@ export function BandBars({ bands, unit }: { bands: BandLevel[]; unit: string }) 
       geometry.current = { left: left / dpr, barW: barW / dpr };
       const y = (v: number) => 6 * dpr + ((top - v) / (top - floor)) * plotH;
       ctx.font = `${11 * dpr}px "JetBrains Mono", ui-monospace, monospace`;
-      ctx.fillStyle = palette.mist[300];
+      ctx.fillStyle = themeColour((p) => p.mist[300]);
       ctx.textAlign = 'right';
       ctx.textBaseline = 'middle';
-      ctx.strokeStyle = 'rgba(255,255,255,0.06)';
+      ctx.strokeStyle = themeColour((p) => p.ink[800]);
       for (const v of ticks(floor, top, 5)) {
         ctx.beginPath();
         ctx.moveTo(left, Math.round(y(v)) + 0.5);
@@ -55,7 +57,7 @@ export function BandBars({ bands, unit }: { bands: BandLevel[]; unit: string }) 
           ctx.fillRect(x + barW * 0.14, yv, barW * 0.72, 6 * dpr + plotH - yv);
         }
         if (labelled.has(b.nominalHz)) {
-          ctx.fillStyle = palette.mist[500];
+          ctx.fillStyle = themeColour((p) => p.mist[500]);
           ctx.fillText(shortHz(b.nominalHz), x + barW / 2, H - bottom + 4 * dpr);
         }
       });
@@ -64,7 +66,7 @@ export function BandBars({ bands, unit }: { bands: BandLevel[]; unit: string }) 
     const observer = new ResizeObserver(draw);
     observer.observe(canvas);
     return () => observer.disconnect();
-  }, [bands, hover]);
+  }, [bands, hover, theme]);
 
   const onMove = (e: PointerEvent<HTMLCanvasElement>) => {
     const rect = e.currentTarget.getBoundingClientRect();

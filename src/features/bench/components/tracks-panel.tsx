@@ -10,7 +10,8 @@ import { useCursorSync } from './cursor-sync';
 import { usePlayHeadOnPlot } from '../listen/use-play-head-on-plot';
 import { CsvButton, PLOT_HEIGHT, useDockInputs } from './dock-inputs';
 import { plotAxis, SERIES_COLOURS, UPlotChart } from './uplot-chart';
-import { palette } from '../../../config/theme';
+import { themeColour } from '../../../config/theme';
+import { useThemeShown } from '../../../lib/theme-preference';
 
 /** The tracks of the ticked guides (the session computes them in a worker), against time or speed. */
 export function TracksPanel() {
@@ -19,6 +20,8 @@ export function TracksPanel() {
   const computed = useBench((s) => s.tracks);
   const unit = `${dbUnit(p.weighting)} re ${p.reference.label}`;
   const against = p.against;
+  useThemeShown(); // re-render on a theme switch, so the markers take its colour
+  const markerFill = themeColour((c) => c.ink[900]);
   const tracks = useMemo(() => {
     if (!p.ready || computed.kind !== 'done' || selected.length === 0) return null;
     const byId = new Map(selected.map((l) => [l.id, l]));
@@ -52,7 +55,7 @@ export function TracksPanel() {
               size: 6,
               width: 1.25,
               stroke: colour,
-              fill: palette.ink[900],
+              fill: markerFill,
               // hollow markers only where another guide falls inside the band
               filter: () => summed.flatMap((c, j) => (c ? [j] : [])),
             },
@@ -60,7 +63,7 @@ export function TracksPanel() {
         }),
       ],
     };
-  }, [tracks, against, unit]);
+  }, [tracks, against, unit, markerFill]);
 
   const data = useMemo((): uPlot.AlignedData => (tracks ? [tracks.aligned.x, ...tracks.aligned.rows] : [[]]), [tracks]);
   const syncCursor = useCursorSync(p.stores, against, p.frameTimes, p.frameRpm);

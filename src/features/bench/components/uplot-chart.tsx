@@ -1,15 +1,9 @@
-import { useEffect, useLayoutEffect, useRef, useSyncExternalStore } from 'react';
+import { useEffect, useLayoutEffect, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 import { seriesColours, themeColour } from '../../../config/theme';
+import { useThemeShown } from '../../../lib/theme-preference';
 
-/** The theme shown (a chart is made again when it changes: canvases do not follow CSS). */
-const subscribeTheme = (onChange: () => void) => {
-  const observer = new MutationObserver(onChange);
-  observer.observe(document.documentElement, { attributes: true, attributeFilter: ['data-theme'] });
-  return () => observer.disconnect();
-};
-const currentTheme = () => document.documentElement.dataset.theme ?? 'dark';
 
 /** Axis colours in the theme shown now. */
 const themedAxis = (a: uPlot.Axis): uPlot.Axis => ({
@@ -56,7 +50,8 @@ export function UPlotChart({
   dataRef.current = data;
   const onChartRef = useRef(onChart);
   onChartRef.current = onChart;
-  const theme = useSyncExternalStore(subscribeTheme, currentTheme, () => 'dark');
+  // a chart is made again when the theme changes
+  const theme = useThemeShown();
 
   useLayoutEffect(() => {
     const box = boxRef.current;

@@ -58,7 +58,7 @@ export function TracksChart({ tracks, xAxis, testId = 'view-tracks', label = 'Tr
             <rect x={0} y={0} width={W} height={H} />
           </clipPath>
           {ticks(lo, hi, 4).map((v) => (
-            <line key={v} x1={0} x2={W} y1={yOf(v)} y2={yOf(v)} stroke={palette.ink[700]} vectorEffect="non-scaling-stroke" />
+            <line key={v} x1={0} x2={W} y1={yOf(v)} y2={yOf(v)} style={{ stroke: 'var(--c-ink-700)' }} vectorEffect="non-scaling-stroke" />
           ))}
           <g clipPath="url(#tracks-clip)">
             {tracks.map((t, i) => {

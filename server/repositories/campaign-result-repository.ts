@@ -90,11 +90,22 @@ export class CampaignResultRepository {
     return { result: (await this.byFile(campaignId, r.file))!, created: true };
   }
 
-  /** One page of the campaign's results whose file name or error contains q, and how many match in all. */
-  async page(campaignId: number, opts: { limit: number; offset: number; sort: CampaignResultSort; q: string }): Promise<{ rows: StoredResult[]; total: number }> {
+  /**
+   * One page of the campaign's results whose file name, error or own tag values (JSON_SEARCH looks at
+   * values, not keys) contain q, or whose file
+   * is one of `taggedFiles` (the files the campaign's tags match), and how many match in all.
+   */
+  async page(
+    campaignId: number,
+    opts: { limit: number; offset: number; sort: CampaignResultSort; q: string; taggedFiles?: string[] },
+  ): Promise<{ rows: StoredResult[]; total: number }> {
     const where = (qb: Knex.QueryBuilder) => {
       qb.where('campaign_id', campaignId);
-      if (opts.q) qb.andWhere((w) => w.where('file', 'like', contains(opts.q)).orWhere('error', 'like', contains(opts.q)));
+      if (opts.q)
+        qb.andWhere((w) => {
+          w.where('file', 'like', contains(opts.q)).orWhere('error', 'like', contains(opts.q)).orWhereRaw("JSON_SEARCH(LOWER(tags), 'one', ?) IS NOT NULL", [contains(opts.q.toLowerCase())]);
+          if (opts.taggedFiles?.length) w.orWhereIn('file', opts.taggedFiles);
+        });
     };
     const [{ n }] = await this.db('campaign_results').modify(where).count({ n: '*' });
     const descending = opts.sort.startsWith('-');

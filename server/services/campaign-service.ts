@@ -108,7 +108,10 @@ export class CampaignService {
 
   async listResults(caller: Caller, projectId: number, campaignId: number, query: ListCampaignResultsQuery): Promise<CampaignResultPage> {
     const campaign = await this.open(caller, projectId, campaignId, 'viewer', false);
-    const { rows, total } = await this.results.page(campaignId, query);
+    // the campaign's own tags (from tags.csv) are searched here: the files whose tag values contain q
+    const q = query.q.toLowerCase();
+    const taggedFiles = q ? Object.entries(campaign.tags).flatMap(([file, tags]) => (Object.values(tags).some((v) => String(v).toLowerCase().includes(q)) ? [file] : [])) : [];
+    const { rows, total } = await this.results.page(campaignId, { ...query, taggedFiles: taggedFiles.slice(0, 5000) });
     return { results: rows.map((r) => withCampaignTags(campaign, r)), total };
   }
 }

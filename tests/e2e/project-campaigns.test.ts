@@ -122,11 +122,11 @@ describe('project campaigns (browser)', () => {
     await page.getByRole('button', { name: 'Result', exact: true }).click(); // failed first
     await expect.poll(firstFile, { timeout: 10_000 }).toBe(broken.file);
     expect(await rows.first().textContent()).toContain('no pulses');
-    await page.getByLabel('Filter the results by file name or error').fill('run-03');
+    await page.getByLabel('Filter the results by file name, error or tag').fill('run-03');
     await expect.poll(() => rows.count(), { timeout: 10_000 }).toBe(1);
     expect(await firstFile()).toBe('B2/run-03.wav');
     expect(await page.getByTestId('campaign-results-range').textContent()).toContain('1–1 of 1');
-    await page.getByLabel('Filter the results by file name or error').fill('');
+    await page.getByLabel('Filter the results by file name, error or tag').fill('');
     await expect.poll(() => rows.count(), { timeout: 10_000 }).toBe(8);
 
     // Trends: the seven analysed runs against build (B1, B2, B10 in natural order); run-06 flagged against its build mates

@@ -146,8 +146,8 @@ export function ResultsTable({ projectId, campaignId, tagNames }: { projectId: n
             type="search"
             value={typed}
             onChange={(e) => setTyped(e.target.value)}
-            placeholder="Part of a file name or error"
-            aria-label="Filter the results by file name or error"
+            placeholder="Part of a file name, error or tag"
+            aria-label="Filter the results by file name, error or tag"
             className="w-72 rounded-md border border-ink-700 bg-ink-900 px-2 py-1 text-sm text-mist-100 placeholder:text-mist-500 focus:border-accent"
           />
         </label>

@@ -174,7 +174,7 @@ describe('personal API tokens', () => {
     } finally {
       await t.db('project_members').insert({ project_id: projectId, user_id: engineerId, role: 'engineer' });
     }
-    expect(await t.db('campaign_results').whereIn('file', ['a.wav']).count({ n: '*' })).toEqual([{ n: 0 }]);
+    expect(await t.db('campaign_results').where({ campaign_id: campaign.body.campaign.id, file: 'a.wav' }).count({ n: '*' })).toEqual([{ n: 0 }]);
   });
 
   it('answers 401 TOKEN_INVALID for a revoked, an expired, an unknown and a malformed token', async () => {

@@ -166,14 +166,14 @@ describe('test campaigns', () => {
     });
 
     it('searches tag values too, the campaign\'s (from tags.csv) and the result\'s own, not tag names', async () => {
-      const made = await engineer.request('POST', base(), { name: 'tagged', preset: PRESET, total: 3, tags: { 'a.wav': { build: 'B7' }, 'b.wav': { build: 'B8' } } });
+      const made = await engineer.request('POST', base(), { name: 'tagged', preset: PRESET, total: 3, tags: { 'tagged/a.wav': { build: 'B7' }, 'tagged/b.wav': { build: 'B8' } } });
       const id = made.body.campaign.id;
-      await post({ file: 'a.wav', ok: false, error: 'cut short' }, engineer, id);
-      await post({ file: 'b.wav', ok: false, error: 'cut short' }, engineer, id);
-      await post({ file: 'c.wav', ok: false, error: 'cut short', tags: { firmware: 'fw-B7x' } }, engineer, id);
+      await post({ file: 'tagged/a.wav', ok: false, error: 'cut short' }, engineer, id);
+      await post({ file: 'tagged/b.wav', ok: false, error: 'cut short' }, engineer, id);
+      await post({ file: 'tagged/c.wav', ok: false, error: 'cut short', tags: { firmware: 'fw-B7x' } }, engineer, id);
       const search = async (q: string) => ((await viewer.request('GET', `${results(id)}?sort=file&q=${encodeURIComponent(q)}`)).body as { results: { file: string }[] }).results.map((r) => r.file);
-      expect(await search('b7')).toEqual(['a.wav', 'c.wav']);
-      expect(await search('B8')).toEqual(['b.wav']);
+      expect(await search('b7')).toEqual(['tagged/a.wav', 'tagged/c.wav']);
+      expect(await search('B8')).toEqual(['tagged/b.wav']);
       expect(await search('firmware')).toEqual([]);
     });
 

@@ -8,7 +8,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { makeProject, makeUser, sessionFor, type Session } from '../support/actors';
+import { makeProject, makeProjectTeam, type Session } from '../support/actors';
 import { startTestApp } from '../support/test-app';
 
 const t = startTestApp();
@@ -36,19 +36,7 @@ describe('test campaigns', () => {
   let campaignId: number;
 
   beforeAll(async () => {
-    const l = await makeUser(t.db, 'c-lead', 'staff');
-    const e = await makeUser(t.db, 'c-engineer', 'staff');
-    const v = await makeUser(t.db, 'c-viewer', 'guest');
-    const o = await makeUser(t.db, 'c-outsider', 'staff');
-    engineerId = e.id;
-    const members = [
-      { id: l.id, role: 'lead' as const },
-      { id: e.id, role: 'engineer' as const },
-      { id: v.id, role: 'viewer' as const },
-    ];
-    projectId = await makeProject(t.db, members);
-    archivedId = await makeProject(t.db, members);
-    [lead, engineer, viewer, outsider] = await Promise.all([l, e, v, o].map((u) => sessionFor(t.app, u.email)));
+    ({ projectId, archivedId, engineerId, lead, engineer, viewer, outsider } = await makeProjectTeam(t.db, t.app, 'c'));
   });
 
   const base = () => `/api/projects/${projectId}/campaigns`;

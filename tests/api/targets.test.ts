@@ -4,7 +4,7 @@
  */
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { makeProject, makeUser, sessionFor, type Session } from '../support/actors';
+import { makeProject, makeProjectTeam, type Session } from '../support/actors';
 import { startTestApp } from '../support/test-app';
 
 const t = startTestApp();
@@ -29,19 +29,7 @@ describe('project targets', () => {
   let outsider: Session;
 
   beforeAll(async () => {
-    const l = await makeUser(t.db, 't-lead', 'staff');
-    const e = await makeUser(t.db, 't-engineer', 'staff');
-    const v = await makeUser(t.db, 't-viewer', 'guest');
-    const o = await makeUser(t.db, 't-outsider', 'staff');
-    engineerId = e.id;
-    const members = [
-      { id: l.id, role: 'lead' as const },
-      { id: e.id, role: 'engineer' as const },
-      { id: v.id, role: 'viewer' as const },
-    ];
-    projectId = await makeProject(t.db, members);
-    archivedId = await makeProject(t.db, members);
-    [lead, engineer, viewer, outsider] = await Promise.all([l, e, v, o].map((u) => sessionFor(t.app, u.email)));
+    ({ projectId, archivedId, engineerId, lead, engineer, viewer, outsider } = await makeProjectTeam(t.db, t.app, 't'));
   });
 
   const create = (s: Session, body: unknown, project = projectId) => s.request('POST', `/api/projects/${project}/targets`, body);

@@ -52,3 +52,31 @@ export async function sessionFor(app: Express, email: string | null, password = 
     },
   };
 }
+
+/** A project team for a feature's API tests: a lead, an engineer and a viewer of two projects, and an outsider. */
+export interface ProjectTeam {
+  projectId: number;
+  /** A second project of the same members (a test may archive it) */
+  archivedId: number;
+  engineerId: number;
+  lead: Session;
+  engineer: Session;
+  viewer: Session;
+  outsider: Session;
+}
+
+export async function makeProjectTeam(db: Knex, app: Express, prefix: string): Promise<ProjectTeam> {
+  const l = await makeUser(db, `${prefix}-lead`, 'staff');
+  const e = await makeUser(db, `${prefix}-engineer`, 'staff');
+  const v = await makeUser(db, `${prefix}-viewer`, 'guest');
+  const o = await makeUser(db, `${prefix}-outsider`, 'staff');
+  const members = [
+    { id: l.id, role: 'lead' as const },
+    { id: e.id, role: 'engineer' as const },
+    { id: v.id, role: 'viewer' as const },
+  ];
+  const projectId = await makeProject(db, members);
+  const archivedId = await makeProject(db, members);
+  const [lead, engineer, viewer, outsider] = await Promise.all([l, e, v, o].map((u) => sessionFor(app, u.email)));
+  return { projectId, archivedId, engineerId: e.id, lead, engineer, viewer, outsider };
+}

@@ -123,7 +123,7 @@ export function carrierTonality(
         tnrLimitDb: null,
         prLimitDb: null,
         levelDb: a.levelDb,
-        aboveThresholdDb: a.levelDb - hearingThresholdDb(c.hz),
+        aboveThresholdDb: a.aboveHearingThresholdDb,
         audibilityDb: Number.isFinite(a.audibilityDb) ? a.audibilityDb : null,
       });
     }

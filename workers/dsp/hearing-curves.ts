@@ -5,6 +5,7 @@
  */
 import { timeVaryingLoudness } from './loudness';
 import { hearingModelTonality } from './hearing-model';
+import { rpmAtTimes } from './speed';
 
 export interface HearingRequest {
   /** The channel in Pa (calibrated) */
@@ -58,9 +59,9 @@ export function maxHold(t: ArrayLike<number>, v: ArrayLike<number>, points = HEA
 }
 
 export function loudnessCurve(req: HearingRequest): LoudnessCurve {
+  // already thinned by the method itself (each value the maximum of its stretch, at most 2000)
   const r = timeVaryingLoudness(req.samplesPa, req.fsHz, req.field);
-  const thin = maxHold(r.t, r.sone);
-  return { method: 'ISO 532-1', t: thin.t, sone: thin.v, n5Sone: r.n5Sone, maxSone: r.maxSone };
+  return { method: 'ISO 532-1', t: r.t, sone: r.sone, n5Sone: r.n5Sone, maxSone: r.maxSone };
 }
 
 export function tonalityCurve(req: HearingRequest): TonalityCurve {
@@ -70,23 +71,15 @@ export function tonalityCurve(req: HearingRequest): TonalityCurve {
 }
 
 /**
- * The speed at each moment `t`, read linearly between the map's frames (their times and speeds); NaN
- * outside them or where the speed is unknown.
+ * The speed at each moment `t`, read linearly between the map's frames (their times and speeds) by
+ * speed.ts rpmAtTimes; NaN outside them or where the speed is unknown.
  */
 export function speedAtTimes(t: ArrayLike<number>, frameTimes: ArrayLike<number>, frameRpm: ArrayLike<number>): Float64Array {
-  const out = new Float64Array(t.length).fill(NaN);
   const n = Math.min(frameTimes.length, frameRpm.length);
-  if (n === 0) return out;
-  let j = 0;
-  for (let i = 0; i < t.length; i++) {
-    const x = t[i];
-    if (!(x >= frameTimes[0] && x <= frameTimes[n - 1])) continue;
-    while (j < n - 2 && frameTimes[j + 1] < x) j++;
-    while (j > 0 && frameTimes[j] > x) j--;
-    const t0 = frameTimes[j];
-    const t1 = frameTimes[Math.min(n - 1, j + 1)];
-    const w = t1 > t0 ? (x - t0) / (t1 - t0) : 0;
-    out[i] = frameRpm[j] + w * (frameRpm[Math.min(n - 1, j + 1)] - frameRpm[j]);
-  }
-  return out;
+  const times = Float64Array.from(t);
+  if (n === 0) return times.fill(NaN);
+  const curve = { tS: Float64Array.from({ length: n }, (_, i) => frameTimes[i]), rpm: Float64Array.from({ length: n }, (_, i) => frameRpm[i]) };
+  const rpm = rpmAtTimes(curve, times);
+  for (let i = 0; i < times.length; i++) if (!(times[i] >= curve.tS[0] && times[i] <= curve.tS[n - 1])) rpm[i] = NaN;
+  return rpm;
 }

@@ -11,6 +11,7 @@ import { frameTimeS, type StftLayout } from './stft';
 import { resolveCrossings } from './crossing-tracks';
 import { trackAgainstSpeed, trackGuide, type Guide } from './tracks';
 import type { WindowName } from './window';
+import { overallPower } from './levels';
 
 /** Half width of each window's main lobe, in bins (Harris 1978, Table 1: first zeros at ±1…±5 bins). */
 export const MAIN_LOBE_HALF_BINS: Record<WindowName, number> = { rect: 1, hann: 2, hamming: 2, 'blackman-harris': 4, flattop: 5 };
@@ -92,9 +93,8 @@ export interface InverterReport {
  */
 export function overallRms(power: Float32Array, layout: StftLayout, enbwBins: number): number {
   if (layout.frames === 0) return 0;
-  let sum = 0;
-  for (let i = 0; i < layout.frames * layout.bins; i++) sum += power[i];
-  return Math.sqrt(sum / enbwBins / layout.frames);
+  // every bin of every frame, DC included, as one spectrum: the frames' mean squares summed
+  return Math.sqrt(overallPower(power.subarray(0, layout.frames * layout.bins), enbwBins, 0) / layout.frames);
 }
 
 const round = (x: number, digits = 6) => (Number.isFinite(x) ? Number(x.toPrecision(digits)) : x);

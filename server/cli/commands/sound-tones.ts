@@ -5,7 +5,6 @@
  * standard defines them (89.1 Hz–11.2 kHz; null and inTnrPrRange false elsewhere).
  */
 import { createRealFft } from '../../../workers/dsp/fft';
-import { hearingThresholdDb } from '../../../workers/dsp/hearing-threshold';
 import { averageFrames, computeFrames, stftLayout } from '../../../workers/dsp/stft';
 import { findTones, toneAudibilityTs20065 } from '../../../workers/dsp/tone-audibility';
 import { inTonalityScope, prominenceRatio, toneToNoiseRatio } from '../../../workers/dsp/tonality';
@@ -52,7 +51,7 @@ export async function soundTones(x: Float32Array, fsHz: number, max = 5): Promis
       hz: round(a.toneHz, 2),
       levelDb: round(a.levelDb, 2),
       audibilityDb: round(a.audibilityDb, 2),
-      aboveHearingThresholdDb: finiteOrNull(a.levelDb - hearingThresholdDb(hz), 2),
+      aboveHearingThresholdDb: finiteOrNull(a.aboveHearingThresholdDb, 2),
       tnrDb: finiteOrNull(tnr?.deltaLtDb, 2),
       prDb: finiteOrNull(pr?.deltaLpDb, 2),
       inTnrPrRange: inRange && tnr !== null && pr !== null,

@@ -83,7 +83,6 @@ export function MapView(props: Props) {
       }
     }
     if (n.guides && guidesRef.current) {
-      if (boxRef.current) boxRef.current.dataset.tonalPoints = String(p.tonal ? p.tonal.hz.filter(Number.isFinite).length : 0);
       paintGuides(guidesRef.current, { view, swapped: p.swapped, hasMap, lines: p.lines, against: p.against, frameTimes: p.frameTimes, frameRpm: p.frameRpm, dpr: dpr.current, tonal: p.tonal });
     }
     if ((n.cursor || n.guides) && cursorRef.current) {
@@ -185,6 +184,11 @@ export function MapView(props: Props) {
   useEffect(() => {
     scheduler.request({ guides: true });
   }, [props.lines, props.frameTimes, props.frameRpm, props.tonal, scheduler]);
+
+  // how many tonal-frequency dots the map holds (for tests and tools): counted when they change, not per redraw
+  useEffect(() => {
+    if (boxRef.current) boxRef.current.dataset.tonalPoints = String(props.tonal ? props.tonal.hz.filter(Number.isFinite).length : 0);
+  }, [props.tonal]);
 
   useEffect(() => {
     scheduler.request({ cursor: true });

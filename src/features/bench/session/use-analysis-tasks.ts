@@ -148,7 +148,7 @@ export interface GuideTracksInput extends Omit<GuideTracksRequest, 'power' | 'la
 }
 
 /** The map channel in its units, for the Vold–Kalman filter at crossings (a copy: it is sent to the worker). */
-const calibrated = (c: { samples: Float32Array | null; scale: number }) => (c.samples ? Float32Array.from(c.samples, (v) => v * c.scale) : undefined);
+export const calibrated = (c: { samples: Float32Array | null; scale: number }) => (c.samples ? Float32Array.from(c.samples, (v) => v * c.scale) : undefined);
 
 /**
  * The tracks of the selected guides (guideTracks in a worker, crossings filtered from the samples),

@@ -9,7 +9,7 @@ import * as Comlink from 'comlink';
 import { loudnessCurve, tonalityCurve, type HearingRequest, type LoudnessCurve, type TonalityCurve } from '../../../../workers/dsp/hearing-curves';
 import { errorMessage } from '../../../lib/error-message';
 import { isAbort, runTask, type TaskLane } from '../../../lib/workers/analysis-tasks';
-import type { TaskState } from './use-analysis-tasks';
+import { calibrated, type TaskState } from './use-analysis-tasks';
 
 export interface HearingInput {
   /** The map channel as read, and the factor to Pa */
@@ -27,11 +27,7 @@ export interface HearingState {
   tonality: TaskState<TonalityCurve>;
 }
 
-const request = (c: HearingInput['channel'], fsHz: number, field: 'free' | 'diffuse'): HearingRequest => ({
-  samplesPa: Float32Array.from(c.samples!, (v) => v * c.scale),
-  fsHz,
-  field,
-});
+const request = (c: HearingInput['channel'], fsHz: number, field: 'free' | 'diffuse'): HearingRequest => ({ samplesPa: calibrated(c)!, fsHz, field });
 
 function useHearingTask<T extends LoudnessCurve | TonalityCurve>(lane: TaskLane, input: HearingInput, asked: boolean, field: 'free' | 'diffuse', inline: (r: HearingRequest) => T): TaskState<T> {
   const [state, setState] = useState<TaskState<T>>({ kind: 'idle' });

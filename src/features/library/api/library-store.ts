@@ -52,13 +52,17 @@ function db() {
   return stores;
 }
 
+let leftoversCleared: Promise<void> | null = null;
+
 /** Newest first. Entries whose copy was cut off (a page closed mid-copy) are removed, with their partial files. */
 export async function listLibrary(): Promise<LibraryEntry[]> {
   const all = await values<LibraryEntry>(db().entries);
   const cutOff = all.filter((e) => e.copying && !copyProgress.get(e.fingerprint));
   await Promise.all(cutOff.map((e) => del(e.fingerprint, db().entries).catch(() => undefined)));
   const kept = all.filter((e) => !cutOff.includes(e));
-  await removeLeftovers(new Set(kept.map((e) => e.fingerprint))).catch(() => undefined);
+  // what a closed page left in the file storage is cleared once per page load, not on every listing
+  leftoversCleared ??= removeLeftovers(new Set(kept.map((e) => e.fingerprint))).catch(() => undefined);
+  await leftoversCleared;
   return kept.sort((a, b) => b.addedAt.localeCompare(a.addedAt));
 }
 

@@ -70,6 +70,8 @@ export async function runQueued(
         },
       })),
     );
+    // the campaign only waits from here: say what it waits for, or a queue without workers looks hung
+    process.stderr.write(`campaign: ${files.length} files queued on ${url}; waiting for analyze-worker processes (npm run -s analyze-worker -- --queue ${url})\n`);
     const aborted = new Promise<void>((resolve) => (signal.aborted ? resolve() : signal.addEventListener('abort', () => resolve(), { once: true })));
     const finished = jobs.map((job, i) =>
       job.waitUntilFinished(events).then(

@@ -21,7 +21,7 @@ const api = {
     jobId: string,
     file: Blob,
     fileName: string,
-    options: { channels?: number[]; csv?: CsvOptions },
+    options: { channels?: number[]; csv?: CsvOptions; lazy?: boolean },
     onProgress?: ProgressCallback,
   ): Promise<Outcome<DecodedWithFingerprint>> {
     try {

@@ -84,7 +84,7 @@ export async function decodeRecording(source: ByteSource, options: DecodeOptions
     return rec;
   }
   const header = await readWavHeader(source);
-  const channels = options.channels ?? header.channels.map((c) => c.index);
+  const channels = options.channels ?? (options.lazy ? [] : header.channels.map((c) => c.index));
   checkChannels(source.name, header, channels);
   const { samples, nonFinite } = await readWavSamples(source, {
     layout: header.wav!,

@@ -68,6 +68,12 @@ export interface CsvOptions {
 export interface DecodeOptions {
   /** Channel indices to decode; all when absent. */
   channels?: number[];
+  /**
+   * With no `channels`: a WAV (which can give any one channel without the others) is opened with none
+   * decoded, for the Bench to read the ones it uses on demand; the formats read whole (CSV, MAT, HDF5,
+   * UFF) still give all.
+   */
+  lazy?: boolean;
   csv?: CsvOptions;
   onProgress?: ProgressCallback;
   /** Checked between blocks; when it returns true the read stops with CANCELLED. */

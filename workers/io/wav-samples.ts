@@ -43,6 +43,7 @@ export async function readWavSamples(
   const framesPerBlock = Math.max(1, Math.floor(BLOCK_BYTES / layout.blockAlign));
   const out = channels.map(() => (req.shared ? new Float32Array(new SharedArrayBuffer(frames * 4)) : new Float32Array(frames)));
   const bad = channels.map((channel) => ({ channel, count: 0, firstFrame: -1 }));
+  if (channels.length === 0) return { samples: [], nonFinite: [] };
 
   const readBlock = (start: number) => source.read(layout.dataOffset + start * layout.blockAlign, Math.min(framesPerBlock, frames - start) * layout.blockAlign);
   let next: Promise<Uint8Array> | null = frames > 0 ? readBlock(0) : null;

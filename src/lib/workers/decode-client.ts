@@ -34,7 +34,7 @@ function decodeWorker(): Comlink.Remote<DecodeWorkerApi> {
 export function decodeInWorker(
   file: Blob,
   fileName: string,
-  options: { channels?: number[]; csv?: CsvOptions } = {},
+  options: { channels?: number[]; csv?: CsvOptions; lazy?: boolean } = {},
   onProgress?: (fraction: number) => void,
 ): DecodeJob {
   const remote = decodeWorker();

@@ -15,8 +15,28 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
   const windowName = useBench((s) => s.settings.windowName);
   const shared = useBench((s) => typeof SharedArrayBuffer !== 'undefined' && s.map.power?.power.buffer instanceof SharedArrayBuffer);
   const percent = status.kind === 'computing' || status.kind === 'cancelled' ? Math.round(status.fraction * 100) : 0;
+  const reading = useBench((s) => s.channelReading);
+  const channelsRead = useBench((s) => s.recording.decoded.channelIndices);
+  const readPercent = reading ? Math.round(reading.fraction * 100) : 0;
   return (
     <div className="flex min-h-7 flex-wrap items-center gap-3">
+      {reading && (
+        <>
+          <div
+            role="progressbar"
+            aria-label={`Reading channel ${reading.indices.map((i) => i + 1).join(', ')} from the file`}
+            aria-valuemin={0}
+            aria-valuemax={100}
+            aria-valuenow={readPercent}
+            className="h-1.5 w-40 overflow-hidden rounded-full bg-ink-700"
+          >
+            <div className="h-full bg-accent transition-[width]" style={{ width: `${readPercent}%` }} />
+          </div>
+          <span className="font-mono text-xs text-mist-500" data-testid="channel-reading">
+            Reading channel {reading.indices.map((i) => i + 1).join(', ')}: {readPercent} %
+          </span>
+        </>
+      )}
       {status.kind === 'computing' && (
         <>
           <div
@@ -46,7 +66,7 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
         </>
       )}
       {status.kind === 'done' && layout && (
-        <p className="text-xs text-mist-500" data-testid="map-done" data-engine={status.engine} data-shared={shared}>
+        <p className="text-xs text-mist-500" data-testid="map-done" data-engine={status.engine} data-shared={shared} data-channels-read={[...channelsRead].sort((x, y) => x - y).join(',')}>
           {layout.frames} spectra of {fmt(layout.blockSize / fsHz, 3)} s, {windowLabel[windowName]} window.
         </p>
       )}
@@ -63,8 +83,10 @@ export function MapNotices() {
   const channel = useBench((s) => s.settings.channel);
   const status = useBench((s) => s.map.status);
   const note = useBench((s) => s.note);
+  const channelError = useBench((s) => s.channelError);
   return (
     <>
+      {channelError && <Notice tone="error">{channelError}</Notice>}
       {tooShort && <Notice>The recording is shorter than the smallest block ({MIN_BLOCK_SAMPLES} samples), so it has no map.</Notice>}
       {calibrationBad && <Notice tone="error">The calibration of channel {channel + 1} is not usable; the map keeps the last one that was.</Notice>}
       {status.kind === 'error' && <Notice tone="error">{status.message}</Notice>}

@@ -7,10 +7,14 @@ import { useKeepInLibrary } from '../../library/api/library';
 import { getEntry, getFile, type LibraryEntry } from '../../library/api/library-store';
 import { errorMessage } from '../../../lib/error-message';
 
-/** The recording on the Bench: its library entry and its decoded channels (kept in memory only). */
+/**
+ * The recording on the Bench: its library entry, its file (read again for channels asked later) and the
+ * channels decoded so far (kept in memory only).
+ */
 export interface OpenRecording {
   entry: LibraryEntry;
   decoded: DecodedWithFingerprint;
+  file: Blob;
 }
 
 export interface Reading {
@@ -74,7 +78,8 @@ export function useRecordingReader(onOpened?: (entry: LibraryEntry) => void) {
     setPrompt(null);
     setNotice(null);
     setReading({ fileName, fraction: 0 });
-    const job = decodeInWorker(file, fileName, csv ? { csv } : {}, (fraction) => {
+    // lazy: a WAV opens with its header alone; the Bench then reads the channels it uses
+    const job = decodeInWorker(file, fileName, { lazy: true, ...(csv ? { csv } : {}) }, (fraction) => {
       if (current.current === job) setReading({ fileName, fraction });
     });
     current.current = job;
@@ -102,7 +107,7 @@ export function useRecordingReader(onOpened?: (entry: LibraryEntry) => void) {
       copied.catch((e: unknown) => setNotice({ tone: 'error', fileName, message: errorMessage(e) }));
       if (current.current !== job) return;
       performance.mark('fanlight:stored');
-      setOpen({ entry, decoded });
+      setOpen({ entry, decoded, file });
       openedRef.current?.(entry);
     } catch (e) {
       if (current.current !== job) return;

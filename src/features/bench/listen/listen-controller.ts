@@ -93,13 +93,17 @@ export class ListenController {
   private build(run: PublishedRun): RunSource | null {
     const s = this.settings.get();
     const src = runSource(run, { channel: s.channel, processing: s.processing, bandwidthHz: s.bandwidthHz });
+    const wanted = s.channel ?? run.state.settings.channel;
+    // a channel of the file not read yet: read it now, to be heard on the next play
+    const inFile = wanted >= 0 && wanted < run.state.recording.decoded.header.channels.length;
+    if (!src && inFile) run.state.readChannels([wanted]);
     this.builtFrom = depsOf(run);
     this.source = src;
     src?.prepare();
     this.status.set((st) => ({
       ...st,
       heard: src ? { runId: run.id, runName: run.name, channelName: src.channelName, lineCount: src.lineCount, level: levelStatement(src, s.gainDb) } : null,
-      message: src ? null : `${run.name} has no channel ${(s.channel ?? 0) + 1}.`,
+      message: src ? null : inFile ? `Reading channel ${wanted + 1} of ${run.name} from its file; press play again in a moment.` : `${run.name} has no channel ${wanted + 1}.`,
     }));
     return src;
   }

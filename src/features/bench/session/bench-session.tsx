@@ -1,4 +1,4 @@
-import { createContext, useContext, useLayoutEffect, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
+import { createContext, useContext, useEffect, useLayoutEffect, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from 'react';
 import type { OpenRecording } from '../hooks/use-recording-reader';
 import type { GuidesState } from '../map/guides';
 import type { BenchRestore, ViewOnBench } from '../view-state/view-restore';
@@ -9,6 +9,7 @@ import { useAnalysisModel } from './use-analysis-model';
 import { useHearing } from './use-hearing';
 import { useInputsModel } from './use-inputs-model';
 import { useMapModel } from './use-map-model';
+import { useRecordingChannels } from './use-recording-channels';
 import { useViewModel } from './use-view-model';
 
 /**
@@ -19,7 +20,7 @@ import { useViewModel } from './use-view-model';
  * for what it shows.
  */
 function useBenchModel(
-  recording: OpenRecording,
+  opened: OpenRecording,
   fromView: ViewOnBench | undefined,
   preferredProjectId: number | null,
   live: BenchStores,
@@ -27,9 +28,16 @@ function useBenchModel(
   follow: FollowedView | undefined,
 ) {
   const restore = fromView?.restore ?? start;
+  const channels = useRecordingChannels(opened);
+  const recording = channels.recording;
   const inputs = useInputsModel(recording, restore);
   const map = useMapModel(recording, inputs.state.setup, inputs.state.speed, restore, follow?.against);
   const m = map.state;
+  // the channels in use are read from the file when first needed: the map's and the speed's
+  const source = inputs.state.speedSource;
+  const speedChannel = source.kind === 'tacho' || source.kind === 'channel' ? source.channel : -1;
+  const { ensure } = channels;
+  useEffect(() => ensure([m.settings.channel, speedChannel]), [ensure, m.settings.channel, speedChannel]);
   const analysis = useAnalysisModel(
     {
       power: m.map.power,
@@ -71,7 +79,13 @@ function useBenchModel(
     dispatchGuides: analysis.actions.dispatchGuides,
     follow,
   });
-  const state = { recording, fromView, preferredProjectId, following: follow !== undefined, ...inputs.state, ...m, ...analysis.state, ...hearing.state, ...view.state };
+  const state = {
+    recording,
+    channelReading: channels.reading,
+    channelError: channels.error,
+    /** Reads these channels from the file if they are not read yet (the one heard, say). */
+    readChannels: ensure,
+    fromView, preferredProjectId, following: follow !== undefined, ...inputs.state, ...m, ...analysis.state, ...hearing.state, ...view.state };
   const actions = {
     ...inputs.actions,
     ...map.actions,

@@ -39,6 +39,10 @@ export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channe
   const channel = source.kind === 'tacho' || source.kind === 'channel' ? setup.find((c) => c.index === source.channel) : undefined;
   const scale = channel && calibrationProblem(channel.calibration) === null ? unitsPerFileUnit(channel.calibration) : 1;
   const key = useMemo(() => JSON.stringify({ source, scale }), [source, scale]);
+  // the source channel's samples alone: another channel read later must not start the speed again
+  const sourceChannel = source.kind === 'tacho' || source.kind === 'channel' ? source.channel : -1;
+  const at = channels.indices.indexOf(sourceChannel);
+  const raw = at >= 0 ? channels.samples[at] : null;
 
   useEffect(() => {
     if (problem) {
@@ -58,12 +62,11 @@ export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channe
       }
       return;
     }
-    const at = channels.indices.indexOf(s.channel);
-    if (at < 0) {
-      setState({ kind: 'error', message: 'That channel is not loaded.' });
+    if (!raw) {
+      // being read from the file (the session asks for the speed's channel)
+      setState({ kind: 'computing' });
       return;
     }
-    const raw = channels.samples[at];
     const make = (): SpeedTaskRequest => {
       const samples = raw.slice();
       if (k !== 1) for (let i = 0; i < samples.length; i++) samples[i] *= k;
@@ -95,7 +98,7 @@ export function useSpeedCurve(source: SpeedSource, setup: ChannelSetup[], channe
       clearTimeout(timer);
       job?.cancel();
     };
-  }, [key, problem, channels, fsHz, durationS, owner]);
+  }, [key, problem, raw, fsHz, durationS, owner]);
 
   return state;
 }

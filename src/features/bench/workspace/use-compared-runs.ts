@@ -15,8 +15,8 @@ async function readRun(fingerprint: string): Promise<OpenRecording> {
   if (!entry) throw new Error('That recording is not in the library of this browser any more.');
   const file = await getFile(fingerprint).catch(() => undefined);
   if (!file) throw new Error(`The file of ${entry.name} is missing from the library. Drop it again.`);
-  const decoded = await decodeInWorker(file, entry.name, entry.csv ? { csv: entry.csv } : {}).promise;
-  return { entry, decoded };
+  const decoded = await decodeInWorker(file, entry.name, { lazy: true, ...(entry.csv ? { csv: entry.csv } : {}) }).promise;
+  return { entry, decoded, file };
 }
 
 /**

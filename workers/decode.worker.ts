@@ -21,7 +21,7 @@ const api = {
     jobId: string,
     file: Blob,
     fileName: string,
-    options: { channels?: number[]; csv?: CsvOptions; lazy?: boolean },
+    options: { channels?: number[]; csv?: CsvOptions; lazy?: boolean; into?: Float32Array[] },
     onProgress?: ProgressCallback,
   ): Promise<Outcome<DecodedWithFingerprint>> {
     try {
@@ -32,7 +32,9 @@ const api = {
         isCancelled: () => cancelled.has(jobId),
       });
       const value = { ...decoded, fingerprint: await fingerprint(source) };
-      return Comlink.transfer({ ok: true, value }, decoded.samples.map((s) => s.buffer as ArrayBuffer));
+      // shared arrays (decoded into) are seen by the page as they are: only the page's own are moved
+      const movable = decoded.samples.map((s) => s.buffer).filter((b): b is ArrayBuffer => b instanceof ArrayBuffer);
+      return Comlink.transfer({ ok: true, value }, movable);
     } catch (e) {
       return toOutcomeError(e);
     } finally {

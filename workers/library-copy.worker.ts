@@ -8,9 +8,15 @@
  */
 
 export interface LibraryCopyRequest {
+  kind: 'copy';
   file: Blob;
   folder: string;
   name: string;
+}
+
+/** Holds the copy between slices, and lets it go on. */
+export interface LibraryCopyControl {
+  kind: 'pause' | 'resume';
 }
 
 export type LibraryCopyMessage =
@@ -42,6 +48,7 @@ async function copy({ file, folder, name }: LibraryCopyRequest): Promise<void> {
   try {
     handle.truncate(0);
     for (let at = 0; at < file.size; at += SLICE_BYTES) {
+      await notPaused();
       const bytes = new Uint8Array(await file.slice(at, at + SLICE_BYTES).arrayBuffer());
       let written = 0;
       while (written < bytes.length) written += handle.write(bytes.subarray(written), { at: at + written });
@@ -59,8 +66,21 @@ async function copy({ file, folder, name }: LibraryCopyRequest): Promise<void> {
   }
 }
 
-self.onmessage = (e: MessageEvent<LibraryCopyRequest>) => {
-  copy(e.data).then(
+let paused = false;
+let resumed: (() => void) | null = null;
+const notPaused = () => (paused ? new Promise<void>((resolve) => (resumed = resolve)) : Promise.resolve());
+
+self.onmessage = (e: MessageEvent<LibraryCopyRequest | LibraryCopyControl>) => {
+  const m = e.data;
+  if (m.kind !== 'copy') {
+    paused = m.kind === 'pause';
+    if (!paused) {
+      resumed?.();
+      resumed = null;
+    }
+    return;
+  }
+  copy(m).then(
     () => post({ kind: 'done' }),
     (err: unknown) => post({ kind: 'error', name: err instanceof Error ? err.name : 'Error', message: err instanceof Error ? err.message : String(err) }),
   );

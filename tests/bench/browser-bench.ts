@@ -6,7 +6,7 @@
  */
 import { createServer } from 'node:http';
 import path from 'node:path';
-import { chromium } from 'playwright-core';
+import { chromium, type Browser, type Page } from 'playwright-core';
 import { createApp } from '../../server/app';
 import { DATA_DIR, loadConfig } from '../../server/config';
 import { createDb } from '../../server/db/knex';
@@ -21,7 +21,14 @@ export interface BrowserBenchResult {
   redrawMs: { median: number; p95: number; count: number };
 }
 
-export async function runBrowserBench(log: (line: string) => void): Promise<BrowserBenchResult | null> {
+export interface BenchApp {
+  baseUrl: string;
+  browser: Browser;
+  stop(): Promise<void>;
+}
+
+/** The app on a private MariaDB of its own (port 33308) and a headless Chromium, for the browser benchmarks. */
+export async function openBenchApp(): Promise<BenchApp> {
   const base = loadConfig({ ...process.env, NODE_ENV: 'test', DB_PORT: '33308', DB_NAME: 'fanlight_bench' });
   const config = { ...base, clientDir: path.join(DATA_DIR, 'test-client') };
   const { mariadb } = await prepareDatabase('bench', config.db, { recreate: true });
@@ -37,6 +44,33 @@ export async function runBrowserBench(log: (line: string) => void): Promise<Brow
     executablePath: '/usr/bin/chromium',
     args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
   });
+  return {
+    baseUrl,
+    browser,
+    async stop() {
+      await browser.close();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      fanlight.close();
+      await db.destroy();
+      await mariadb.stop();
+    },
+  };
+}
+
+/** Signs the demo engineer in on a new page of the given size. */
+export async function signedInPage(app: BenchApp, viewport = { width: 2560, height: 1440 }): Promise<Page> {
+  const page = await app.browser.newPage({ viewport });
+  await page.goto(`${app.baseUrl}/signin`);
+  await page.getByLabel('E-mail', { exact: true }).fill('engineer@fanlight.test');
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(`${app.baseUrl}/projects`);
+  return page;
+}
+
+export async function runBrowserBench(log: (line: string) => void): Promise<BrowserBenchResult | null> {
+  const app = await openBenchApp();
+  const { baseUrl } = app;
   try {
     const FS = 51200;
     const rpm = (t: number) => 1000 + 150 * t;
@@ -55,12 +89,7 @@ export async function runBrowserBench(log: (line: string) => void): Promise<Brow
     );
     const wav = Buffer.from(writeWav(channels, { sampleRateHz: FS, bits: 24 }));
     // wide enough that the map canvas is at least the 1500×800 of the goal
-    const page = await browser.newPage({ viewport: { width: 2560, height: 1440 } });
-    await page.goto(`${baseUrl}/signin`);
-    await page.getByLabel('E-mail', { exact: true }).fill('engineer@fanlight.test');
-    await page.getByLabel('Password').fill(DEMO_PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(`${baseUrl}/projects`);
+    const page = await signedInPage(app);
     const dropToPaintedMs: number[] = [];
     for (let run = 0; run < 3; run++) {
       await page.goto(`${baseUrl}/bench`);
@@ -96,10 +125,6 @@ export async function runBrowserBench(log: (line: string) => void): Promise<Brow
     log(`  redraw (pan, zoom, guides) on the ${size} map canvas: median ${result.redrawMs.median.toFixed(1)} ms, 95th percentile ${result.redrawMs.p95.toFixed(1)} ms over ${result.redrawMs.count} redraws`);
     return result;
   } finally {
-    await browser.close();
-    await new Promise<void>((resolve) => server.close(() => resolve()));
-    fanlight.close();
-    await db.destroy();
-    await mariadb.stop();
+    await app.stop();
   }
 }

@@ -74,7 +74,8 @@ describe('the Bench as a workbench (browser)', () => {
     // The map has painted: most pixels opaque, and many colours (a map, not a flat fill).
     await expect.poll(() => page.getByTestId('map-done').isVisible(), { timeout: 30_000 }).toBe(true);
     await expect.poll(async () => (await canvasPixels(page, 'map-canvas')).opaque, { timeout: 10_000 }).toBeGreaterThan(0.9);
-    expect((await canvasPixels(page, 'map-canvas')).colours).toBeGreaterThan(30);
+    // (polled: the tacho channel read after the quantity is chosen may still be repainting the map)
+    await expect.poll(async () => (await canvasPixels(page, 'map-canvas')).colours, { timeout: 10_000 }).toBeGreaterThan(30);
 
     // The speed from the tacho channel, found by default at 60 pulses per revolution.
     const speed = page.getByTestId('speed-summary');

@@ -86,6 +86,9 @@ export async function decodeRecording(source: ByteSource, options: DecodeOptions
   const header = await readWavHeader(source);
   const channels = options.channels ?? (options.lazy ? [] : header.channels.map((c) => c.index));
   checkChannels(source.name, header, channels);
+  if (options.into && (options.into.length !== channels.length || options.into.some((a) => a.length !== header.frames))) {
+    throw new RangeError(`${source.name}: each array to decode into must hold ${header.frames} samples, one per channel asked.`);
+  }
   const { samples, nonFinite } = await readWavSamples(source, {
     layout: header.wav!,
     channelCount: header.channels.length,
@@ -94,6 +97,7 @@ export async function decodeRecording(source: ByteSource, options: DecodeOptions
     onProgress: options.onProgress,
     isCancelled: options.isCancelled,
     shared: options.shared,
+    into: options.into,
   });
   return { header, channelIndices: channels, samples, nonFinite };
 }

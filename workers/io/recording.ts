@@ -83,4 +83,10 @@ export interface DecodeOptions {
    * are decoded straight into them; CSV columns are copied once at the end.
    */
   shared?: boolean;
+  /**
+   * WAV only: arrays (of the header's frame count, usually in SharedArrayBuffers) to decode the channels
+   * asked into, one per channel, so a reader on another thread sees the samples as they arrive; each
+   * progress call comes after the samples it counts are written.
+   */
+  into?: Float32Array[];
 }

@@ -18,6 +18,7 @@ import { isFloat } from './wav-header';
  * reads pay it less (8 MiB keeps a cancel prompt).
  */
 const BLOCK_BYTES = 8 * 1024 * 1024;
+const READS_IN_FLIGHT = 3;
 
 export interface WavSampleRequest {
   layout: WavLayout;
@@ -28,6 +29,8 @@ export interface WavSampleRequest {
   isCancelled?: () => boolean;
   /** Output channels in SharedArrayBuffers (DecodeOptions.shared). */
   shared?: boolean;
+  /** Arrays of `frames` samples to decode into (DecodeOptions.into), one per channel asked. */
+  into?: Float32Array[];
 }
 
 /** Typed views need an offset that is a multiple of the element size; copy when the slice is not. */
@@ -41,21 +44,33 @@ export async function readWavSamples(
 ): Promise<{ samples: Float32Array[]; nonFinite: NonFiniteReport[] }> {
   const { layout, channelCount, frames, channels } = req;
   const framesPerBlock = Math.max(1, Math.floor(BLOCK_BYTES / layout.blockAlign));
-  const out = channels.map(() => (req.shared ? new Float32Array(new SharedArrayBuffer(frames * 4)) : new Float32Array(frames)));
+  const out = channels.map((_, c) => req.into?.[c] ?? (req.shared ? new Float32Array(new SharedArrayBuffer(frames * 4)) : new Float32Array(frames)));
   const bad = channels.map((channel) => ({ channel, count: 0, firstFrame: -1 }));
   if (channels.length === 0) return { samples: [], nonFinite: [] };
 
   const readBlock = (start: number) => source.read(layout.dataOffset + start * layout.blockAlign, Math.min(framesPerBlock, frames - start) * layout.blockAlign);
-  let next: Promise<Uint8Array> | null = frames > 0 ? readBlock(0) : null;
+  // A few reads in flight: a browser serves each slice of a File in a round trip to its own process,
+  // and one at a time leaves the pipe idle between them (measured here: 8 MiB one ahead ~160 MB/s,
+  // three ahead ~280 MB/s).
+  const ahead: Promise<Uint8Array>[] = [];
+  let asked = 0;
+  const fill = () => {
+    while (ahead.length < READS_IN_FLIGHT && asked < frames) {
+      const read = readBlock(asked);
+      read.catch(() => undefined); // handled where awaited; one left behind by an error is no unhandled rejection
+      ahead.push(read);
+      asked += framesPerBlock;
+    }
+  };
+  fill();
   for (let start = 0; start < frames; start += framesPerBlock) {
     if (req.isCancelled?.()) {
-      next?.catch(() => undefined);
       throw new RecordingError('CANCELLED', `Reading ${source.name} was stopped.`);
     }
     const n = Math.min(framesPerBlock, frames - start);
     const offset = layout.dataOffset + start * layout.blockAlign;
-    const bytes = await next!;
-    next = start + framesPerBlock < frames ? readBlock(start + framesPerBlock) : null;
+    const bytes = await ahead.shift()!;
+    fill();
     if (bytes.byteLength < n * layout.blockAlign) {
       throw new RecordingError('READ_FAILED', `${source.name}: only ${bytes.byteLength} bytes could be read at byte offset ${offset}.`);
     }

@@ -17,6 +17,17 @@ export interface MapOptions {
   scale?: number;
   /** Frames per chunk; by default about 64, more for small blocks so each chunk is worth a message. */
   framesPerChunk?: number;
+  /**
+   * Samples still being read into `samples` (a channel streamed from its file): how many are there so
+   * far, from the start. A chunk is computed once the samples it reads are in.
+   */
+  filling?: SampleFill;
+}
+
+/** A channel's samples arriving from the start: how many are in, and a signal when more come. */
+export interface SampleFill {
+  readonly samplesIn: number;
+  subscribe(listener: () => void): () => void;
 }
 
 export interface MapJob {
@@ -65,6 +76,8 @@ interface Job {
   inline: boolean;
   onChunk: MapChunkCallback;
   onProgress?: (fraction: number) => void;
+  filling?: SampleFill;
+  stopFollowing?: () => void;
   resolve(): void;
   reject(e: unknown): void;
 }
@@ -145,7 +158,15 @@ function takeChunk(job: Job): number {
   return job.next < job.chunks.length ? job.next++ : -1;
 }
 
-const hasWork = (job: Job) => !job.finished && !job.inline && (job.retry.length > 0 || job.next < job.chunks.length);
+/** Whether the samples chunk `index` reads are in (always, unless the channel is still being read). */
+function chunkReady(job: Job, index: number): boolean {
+  if (!job.filling) return true;
+  const [from, to] = job.chunks[index];
+  return chunkSampleRange(job.layout, from, to)[1] <= job.filling.samplesIn;
+}
+
+const hasWork = (job: Job) =>
+  !job.finished && !job.inline && (job.retry.length > 0 || (job.next < job.chunks.length && chunkReady(job, job.next)));
 
 function pump() {
   const live = (slots ?? []).filter((s) => !s.dead);
@@ -203,6 +224,7 @@ async function runInline(job: Job) {
   const slice = inlineSlice(layout.blockSize);
   try {
     for (let index = takeChunk(job); index >= 0 && !job.finished; index = takeChunk(job)) {
+      while (!chunkReady(job, index) && !job.finished) await moreSamples(job);
       const [from, to] = job.chunks[index];
       const power = new Float32Array((to - from) * layout.bins);
       for (let f = from; f < to; f += slice) {
@@ -219,6 +241,17 @@ async function runInline(job: Job) {
   } catch (e) {
     fail(job, e);
   }
+}
+
+/** Resolves when more of a filling channel's samples are in (or at once if it is not filling). */
+function moreSamples(job: Job): Promise<void> {
+  return new Promise((resolve) => {
+    if (!job.filling) return resolve();
+    const stop = job.filling.subscribe(() => {
+      stop();
+      resolve();
+    });
+  });
 }
 
 /** Holds results that come early and hands chunks on strictly in frame order. */
@@ -249,6 +282,7 @@ function fail(job: Job, e: unknown) {
 function end(job: Job, error: Error | null) {
   if (job.finished) return;
   job.finished = true;
+  job.stopFollowing?.();
   job.results.clear();
   const at = active.indexOf(job);
   if (at >= 0) active.splice(at, 1);
@@ -313,6 +347,7 @@ export function startMap(
     inline: false,
     onChunk,
     onProgress,
+    filling: options.filling,
     resolve,
     reject,
   };
@@ -322,6 +357,8 @@ export function startMap(
   } else {
     pool();
     active.push(job);
+    // more samples in: the chunks that read them can go out
+    if (job.filling) job.stopFollowing = job.filling.subscribe(pump);
     pump();
   }
   return { layout, done, cancel: () => end(job, abortError()), engines: job.engines };

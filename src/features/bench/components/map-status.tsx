@@ -28,7 +28,7 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
             aria-valuemin={0}
             aria-valuemax={100}
             aria-valuenow={readPercent}
-            className="h-1.5 w-40 overflow-hidden rounded-full bg-ink-700"
+            className="h-1.5 w-24 overflow-hidden rounded-full bg-ink-700"
           >
             <div className="h-full bg-accent transition-[width]" style={{ width: `${readPercent}%` }} />
           </div>
@@ -71,7 +71,12 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
         </p>
       )}
       {exportError && <p className="text-xs text-danger">{exportError}</p>}
-      <p className="text-[11px] text-mist-500" title="Drag to pan · wheel to zoom · Shift-drag a box · double-click for the whole map · ? for all the keys">Drag to pan · wheel to zoom · ? for keys</p>
+      {/* while a channel is read its bar takes the hint's place, so the line does not wrap and move the map */}
+      {!reading && (
+        <p className="text-[11px] text-mist-500" title="Drag to pan · wheel to zoom · Shift-drag a box · double-click for the whole map · ? for all the keys">
+          Drag to pan · wheel to zoom · ? for keys
+        </p>
+      )}
     </div>
   );
 }

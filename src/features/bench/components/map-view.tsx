@@ -57,6 +57,7 @@ export function MapView(props: Props) {
   latest.current = props;
   const dpr = useRef(1);
   const painted = useRef(new WeakSet<MapRaster>());
+  const firstPainted = useRef(new WeakSet<MapRaster>());
   /** Raster columns that arrived since the last frame */
   const pending = useRef<[number, number] | null>(null);
   const draw = useRef<(layers: Layers) => void>(() => undefined);
@@ -77,6 +78,10 @@ export function MapView(props: Props) {
     if (n.map && mapRef.current) {
       paintLevels(mapRef.current, imageRef.current, p.raster, view, p.swapped);
       const r = p.raster;
+      if (r && imageRef.current && view && p.markPainted && r.columnsDone > 0 && !firstPainted.current.has(r)) {
+        firstPainted.current.add(r);
+        performance.mark('fanlight:map-first-painted');
+      }
       if (r && imageRef.current && view && p.markPainted && r.columnsDone >= r.columns && !painted.current.has(r)) {
         painted.current.add(r);
         performance.mark('fanlight:map-painted');

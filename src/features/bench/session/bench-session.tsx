@@ -31,7 +31,7 @@ function useBenchModel(
   const channels = useRecordingChannels(opened);
   const recording = channels.recording;
   const inputs = useInputsModel(recording, restore);
-  const map = useMapModel(recording, inputs.state.setup, inputs.state.speed, restore, follow?.against);
+  const map = useMapModel(recording, inputs.state.setup, inputs.state.speed, restore, follow?.against, channels.filling);
   const m = map.state;
   // the channels in use are read from the file when first needed: the map's and the speed's
   const source = inputs.state.speedSource;

@@ -1,7 +1,7 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { StftLayout, StftSettings } from '../../../../workers/dsp/stft';
 import type { Weighting } from '../../../../workers/dsp/weighting';
-import { startMap, type MapJob } from '../../../lib/workers/analysis-pool';
+import { startMap, type MapJob, type SampleFill } from '../../../lib/workers/analysis-pool';
 import { MapRaster, timeGrid } from '../map/map-raster';
 import { errorMessage } from '../../../lib/error-message';
 
@@ -13,6 +13,8 @@ export interface MapRequest {
   /** Calibration, units per file unit */
   scale: number;
   refRms: number;
+  /** The samples are still being read into `samples`: columns are computed as they allow. */
+  filling?: SampleFill;
 }
 
 export type MapStatus =
@@ -62,6 +64,9 @@ export function useMapComputation(req: MapRequest) {
   const [run, setRun] = useState(0);
   const job = useRef<MapJob | null>(null);
   const fraction = useRef(0);
+  // read when a computation starts; the end of the filling (same samples) must not start another
+  const filling = useRef(req.filling);
+  filling.current = req.filling;
 
   const { samples, fsHz, weighting, scale, refRms } = req;
   const { blockSize, overlap, window } = req.settings;
@@ -100,7 +105,7 @@ export function useMapComputation(req: MapRequest) {
           shownAt = now;
           setStatus((s) => (s.kind === 'computing' ? { kind: 'computing', fraction: f } : s));
         },
-        { scale },
+        { scale, filling: filling.current },
       );
     } catch (e) {
       setRaster(null);

@@ -14,6 +14,7 @@ import { useSpeedMap } from './use-analysis-tasks';
 import { useMapComputation } from './use-map-computation';
 import { DEFAULT_RANGE_DB, useMapSettings, useSettledValue } from './use-map-settings';
 import type { SpeedState } from './use-speed-curve';
+import type { FillingChannels } from './use-recording-channels';
 
 export const MIN_BLOCK_SAMPLES = 256;
 /** A calibration being typed is taken a moment after the last key. */
@@ -29,12 +30,22 @@ function extentsOf(raster: MapRaster, minX: number): Extents {
  * The map of one channel: its settings, the calibrated levels computed in the pool, the level range
  * shown, the speed of each frame, and the map against speed when it is asked for.
  */
-export function useMapModel(recording: OpenRecording, setup: ChannelSetup[], speed: SpeedState, restore: BenchRestore | undefined, followedAgainst?: 'time' | 'speed') {
+export function useMapModel(
+  recording: OpenRecording,
+  setup: ChannelSetup[],
+  speed: SpeedState,
+  restore: BenchRestore | undefined,
+  followedAgainst?: 'time' | 'speed',
+  filling?: FillingChannels | null,
+) {
   const { header, samples: channelSamples, channelIndices } = recording.decoded;
   const { settings, setters } = useMapSettings(header.frames, setup, restore);
   const channelSetup = setup.find((c) => c.index === settings.channel) ?? setup[0];
   const at = channelIndices.indexOf(channelSetup?.index ?? -1);
-  const samples = at >= 0 ? channelSamples[at] : null;
+  // a channel still being read: the map computes the columns its samples allow as they arrive
+  const fillAt = at < 0 && filling ? filling.indices.indexOf(channelSetup?.index ?? -1) : -1;
+  const samples = at >= 0 ? channelSamples[at] : fillAt >= 0 ? filling!.samples[fillAt] : null;
+  const fill = fillAt >= 0 ? filling!.fill : undefined;
   const calibrationBad = channelSetup ? calibrationProblem(channelSetup.calibration) !== null : false;
   const typedScale = channelSetup && !calibrationBad ? unitsPerFileUnit(channelSetup.calibration) : Number.NaN;
   const scale = useSettledValue(typedScale, validScale, CALIBRATION_PAUSE_MS, settings.channel);
@@ -48,10 +59,13 @@ export function useMapModel(recording: OpenRecording, setup: ChannelSetup[], spe
     weighting: settings.weighting,
     scale,
     refRms: reference.refRms,
+    filling: fill,
   });
   const { layout } = map;
   /** The map channel's samples as read, and the calibration the map took (units per file unit) */
-  const mapChannel = useMemo(() => ({ samples: tooShort || !validScale(scale) ? null : samples, scale }), [tooShort, scale, samples]);
+  // (what reads the whole channel, its hearing and Vold–Kalman tracks, waits until it is all read)
+  const whole = at >= 0;
+  const mapChannel = useMemo(() => ({ samples: tooShort || !validScale(scale) || !whole ? null : samples, scale }), [tooShort, scale, samples, whole]);
   const done = map.status.kind === 'done';
   const enbwBins = useMemo(() => makeWindow(settings.windowName, settings.blockSize).enbwBins, [settings.windowName, settings.blockSize]);
 

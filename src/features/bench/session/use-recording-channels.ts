@@ -1,6 +1,7 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { DecodedWithFingerprint } from '../../../../workers/decode.worker';
 import { decodeInWorker, type DecodeJob } from '../../../lib/workers/decode-client';
+import type { SampleFill } from '../../../lib/workers/analysis-pool';
 import { errorMessage } from '../../../lib/error-message';
 import type { OpenRecording } from '../hooks/use-recording-reader';
 
@@ -10,10 +11,34 @@ export interface ChannelReading {
   fraction: number;
 }
 
+/** Channels being decoded into shared memory: their samples fill from the start as the file is read. */
+export interface FillingChannels {
+  indices: number[];
+  samples: Float32Array[];
+  fill: SampleFill;
+}
+
+/** The count of samples in, told to whoever listens (the map, which computes the columns they allow). */
+class Fill implements SampleFill {
+  samplesIn = 0;
+  private readonly listeners = new Set<() => void>();
+  subscribe(listener: () => void): () => void {
+    this.listeners.add(listener);
+    return () => this.listeners.delete(listener);
+  }
+  set(n: number): void {
+    if (n <= this.samplesIn) return;
+    this.samplesIn = n;
+    for (const l of [...this.listeners]) l();
+  }
+}
+
 export interface RecordingChannels {
   /** The recording with the channels read so far (merged into one decoded set). */
   recording: OpenRecording;
   reading: ChannelReading | null;
+  /** The channels being read, while they are, where the format lets them fill as they arrive (WAV). */
+  filling: FillingChannels | null;
   error: string | null;
   /** Reads the channels of these indices that are not read yet (one pass over the file for all). */
   ensure(indices: number[]): void;
@@ -36,6 +61,7 @@ function merge(base: DecodedWithFingerprint, added: { channelIndices: number[]; 
 export function useRecordingChannels(opened: OpenRecording): RecordingChannels {
   const [decoded, setDecoded] = useState(opened.decoded);
   const [reading, setReading] = useState<ChannelReading | null>(null);
+  const [filling, setFilling] = useState<FillingChannels | null>(null);
   const [error, setError] = useState<string | null>(null);
   const asked = useRef(new Set<number>(opened.decoded.channelIndices));
   const queue = useRef<number[]>([]);
@@ -47,14 +73,29 @@ export function useRecordingChannels(opened: OpenRecording): RecordingChannels {
     const indices = queue.current.splice(0);
     setReading({ indices, fraction: 0 });
     setError(null);
-    const j = decodeInWorker(opened.file, opened.entry.name, { channels: indices, ...(opened.entry.csv ? { csv: opened.entry.csv } : {}) }, (fraction) => {
-      if (live.current) setReading({ indices, fraction });
+    const { header } = opened.decoded;
+    // A WAV is decoded into shared memory that the map reads as it fills: its first columns come
+    // with the first megabytes read, not after the whole file (which for gigabytes takes a while).
+    const streams = header.format === 'wav' && globalThis.crossOriginIsolated && typeof SharedArrayBuffer !== 'undefined';
+    const into = streams ? indices.map(() => new Float32Array(new SharedArrayBuffer(header.frames * 4))) : undefined;
+    const fill = new Fill();
+    if (into) setFilling({ indices, samples: into, fill });
+    let shownAt = -Infinity;
+    const j = decodeInWorker(opened.file, opened.entry.name, { channels: indices, ...(into ? { into } : {}), ...(opened.entry.csv ? { csv: opened.entry.csv } : {}) }, (fraction) => {
+      if (!live.current) return;
+      fill.set(Math.round(fraction * header.frames));
+      // the bar moves a few times a second, not for each block
+      const now = performance.now();
+      if (now - shownAt < 150 && fraction < 1) return;
+      shownAt = now;
+      setReading({ indices, fraction });
     });
     job.current = j;
     j.promise.then(
       (got) => {
         if (!live.current) return;
-        setDecoded((d) => merge(d, got));
+        // the arrays the map already reads (the same objects), not the copies of their views
+        setDecoded((d) => merge(d, into ? { ...got, samples: into } : got));
         performance.mark('fanlight:channels-read');
       },
       (e: unknown) => {
@@ -67,6 +108,7 @@ export function useRecordingChannels(opened: OpenRecording): RecordingChannels {
       if (!live.current) return;
       job.current = null;
       setReading(null);
+      setFilling(null);
       pump();
     });
   }, [opened]);
@@ -92,5 +134,5 @@ export function useRecordingChannels(opened: OpenRecording): RecordingChannels {
   );
 
   const recording = useMemo(() => (decoded === opened.decoded ? opened : { ...opened, decoded }), [opened, decoded]);
-  return { recording, reading, error, ensure };
+  return { recording, reading, filling, error, ensure };
 }

@@ -5,7 +5,8 @@
  * read from there. Copies in progress are watched through `copyProgress`.
  */
 import { createStore, del, get, promisifyRequest, set, type UseStore } from 'idb-keyval';
-import type { LibraryCopyMessage, LibraryCopyRequest } from '../../../../workers/library-copy.worker';
+import type { LibraryCopyControl, LibraryCopyMessage, LibraryCopyRequest } from '../../../../workers/library-copy.worker';
+import { onDecodeBusy } from '../../../lib/workers/decode-client';
 
 const FOLDER = 'recordings';
 
@@ -54,7 +55,10 @@ function copyInWorker(fingerprint: string, file: Blob): Promise<void> {
       reject(e instanceof Error ? e : new Error(String(e)));
       return;
     }
+    // paused while the Bench reads channels from a file: that read is the one the engineer waits for
+    const stopListening = onDecodeBusy((busy) => worker.postMessage({ kind: busy ? 'pause' : 'resume' } satisfies LibraryCopyControl));
     const end = () => {
+      stopListening();
       worker.terminate();
       progress.delete(fingerprint);
       tell();
@@ -79,7 +83,7 @@ function copyInWorker(fingerprint: string, file: Blob): Promise<void> {
       end();
       reject(new Error(e.message || 'The library copy could not start.'));
     };
-    worker.postMessage({ file, folder: FOLDER, name: fingerprint } satisfies LibraryCopyRequest);
+    worker.postMessage({ kind: 'copy', file, folder: FOLDER, name: fingerprint } satisfies LibraryCopyRequest);
   });
 }
 

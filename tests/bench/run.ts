@@ -2,6 +2,7 @@
 import { runApiLoadBench } from './api-load-bench';
 import { runBatchMapBench } from './batch-map-bench';
 import { runBrowserBench } from './browser-bench';
+import { runBigRecordingBench } from './big-recording-bench';
 import { runCampaignBench } from './campaign-bench';
 import { runCompareBench } from './compare-bench';
 import { runDecodeBench } from './decode-bench';
@@ -54,6 +55,11 @@ if (bench) {
   targets.push(`drop to painted map under 1.5 s: ${Math.min(...bench.dropToPaintedMs) < 1500 ? 'met' : 'NOT met'}`);
   targets.push(`redraw under 16 ms: ${bench.redrawMs.p95 < 16 ? 'met' : 'NOT met'} (95th percentile)`);
 }
+console.log('a long, wide recording on the Bench (headless Chromium):');
+const big = await runBigRecordingBench(log);
+targets.push(`4 GB, 32 channels: first map columns within 2 s: ${big.firstColumnsMs < 2000 ? 'met' : 'NOT met'}`);
+targets.push(`4 GB, 32 channels: whole map within 10 s: ${big.wholeMapMs < 10_000 ? 'met' : 'NOT met'}`);
+targets.push(`4 GB, 32 channels: Chromium under 2.5 GB: ${big.peakChromiumGb < 2.5 ? 'met' : 'NOT met'}`);
 console.log('the project store under load (API in its own process, loopback):');
 const load = await runApiLoadBench(log);
 for (const run of load) {

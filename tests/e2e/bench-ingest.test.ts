@@ -1,7 +1,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { testChannels, wav } from '../unit/io/wav-fixtures';
-import { launchBrowser, screenshot, showBenchSection, showMapSettings, signIn } from './browser';
+import { launchBrowser, screenshot, showBenchSection, showMapSettings, signedInPage, signIn } from './browser';
 
 describe('the Bench takes a recording in (browser)', () => {
   const baseUrl = inject('baseUrl');
@@ -55,13 +55,7 @@ describe('the Bench takes a recording in (browser)', () => {
   });
 
   it('a wide recording decodes only the channels in use, and another when it is chosen', async () => {
-    const context = await browser.newContext();
-    const page = await context.newPage();
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    await signIn(page, baseUrl, 'engineer@fanlight.test');
-    await page.waitForURL(`${baseUrl}/projects`);
-    await page.goto(`${baseUrl}/bench`);
+    const { context, page, errors } = await signedInPage(browser, baseUrl, 'engineer@fanlight.test');
     // 12 channels, 4 s at 25.6 kHz: the map's channel (the first) is read, the eleven others are not
     const bytes = wav(testChannels(12, 102_400, 25600), { bits: 24, sampleRateHz: 25600 });
     await page.getByTestId('drop-zone-input').setInputFiles({ name: 'wide-run.wav', mimeType: 'audio/wav', buffer: Buffer.from(bytes) });

@@ -1,6 +1,7 @@
 import { useDropzone, type FileRejection } from 'react-dropzone';
 import { Button } from '../../../components/ui/button';
 import type { Reading } from '../hooks/use-recording-reader';
+import { ProgressBar } from '../../../components/ui/progress-bar';
 
 const EXTENSIONS = ['.wav', '.csv', '.tsv', '.txt', '.mat', '.h5', '.hdf5', '.uff', '.unv'];
 
@@ -54,16 +55,7 @@ export function DropZone({ reading, onFile, onRejected, onCancel, compact = fals
         <p className="break-all text-sm text-mist-300">
           Reading <span className="text-mist-100">{reading.fileName}</span>…
         </p>
-        <div
-          role="progressbar"
-          aria-label={`Reading ${reading.fileName}`}
-          aria-valuemin={0}
-          aria-valuemax={100}
-          aria-valuenow={percent}
-          className="h-2 overflow-hidden rounded-full bg-ink-700"
-        >
-          <div className="h-full bg-accent transition-[width]" style={{ width: `${percent}%` }} />
-        </div>
+        <ProgressBar label={`Reading ${reading.fileName}`} percent={percent} className="h-2" />
         <div className="flex items-center justify-between">
           <span className="font-mono text-xs text-mist-500">{percent} %</span>
           <Button type="button" variant="quiet" className="px-2.5 py-1" onClick={onCancel}>

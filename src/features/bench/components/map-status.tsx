@@ -1,4 +1,5 @@
 import { Notice } from '../../../components/ui/notice';
+import { ProgressBar } from '../../../components/ui/progress-bar';
 import { MIN_BLOCK_SAMPLES } from '../session/use-map-model';
 import { useBench, useBenchActions } from '../session/bench-session';
 import { toolButtonClass } from './bench-panel';
@@ -22,16 +23,7 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
     <div className="flex min-h-7 flex-wrap items-center gap-3">
       {reading && (
         <>
-          <div
-            role="progressbar"
-            aria-label={`Reading channel ${reading.indices.map((i) => i + 1).join(', ')} from the file`}
-            aria-valuemin={0}
-            aria-valuemax={100}
-            aria-valuenow={readPercent}
-            className="h-1.5 w-24 overflow-hidden rounded-full bg-ink-700"
-          >
-            <div className="h-full bg-accent transition-[width]" style={{ width: `${readPercent}%` }} />
-          </div>
+          <ProgressBar label={`Reading channel ${reading.indices.map((i) => i + 1).join(', ')} from the file`} percent={readPercent} className="h-1.5 w-24" />
           <span className="font-mono text-xs text-mist-500" data-testid="channel-reading">
             Reading channel {reading.indices.map((i) => i + 1).join(', ')}: {readPercent} %
           </span>
@@ -39,16 +31,7 @@ export function MapStatusLine({ exportError }: { exportError: string | null }) {
       )}
       {status.kind === 'computing' && (
         <>
-          <div
-            role="progressbar"
-            aria-label="Computing the map"
-            aria-valuemin={0}
-            aria-valuemax={100}
-            aria-valuenow={percent}
-            className="h-1.5 w-64 overflow-hidden rounded-full bg-ink-700"
-          >
-            <div className="h-full bg-accent transition-[width]" style={{ width: `${percent}%` }} />
-          </div>
+          <ProgressBar label="Computing the map" percent={percent} />
           <span className="font-mono text-xs text-mist-500">{percent} %</span>
           <button type="button" className={toolButtonClass()} onClick={a.cancelMap}>
             Cancel

@@ -198,6 +198,9 @@ function runningMedian(x: Float64Array, width: number): Float64Array {
   return out;
 }
 
+/** The span of frames whose votes detectCarrier sums, s (its `medianS` by default). */
+export const VOTE_WINDOW_S = 0.6;
+
 export function detectCarrier(power: Float32Array, layout: StftLayout, opts: CarrierOptions = {}): CarrierTrack {
   const bins = layout.bins;
   const frames = layout.frames;
@@ -208,7 +211,7 @@ export function detectCarrier(power: Float32Array, layout: StftLayout, opts: Car
   const score = new Float64Array(frames);
   // Votes summed over a sliding window of frames: a steady carrier piles up in one place, a sweeping
   // order spreads its votes along its path.
-  const half = Math.max(1, Math.round((opts.medianS ?? 0.6) / layout.hopS / 2));
+  const half = Math.max(1, Math.round((opts.medianS ?? VOTE_WINDOW_S) / layout.hopS / 2));
   const width = 2 * half + 1;
   const ring = Array.from({ length: width }, () => new Float32Array(2 * bins + 2));
   const sum = new Float32Array(2 * bins + 2);
@@ -253,6 +256,48 @@ export function carrierShifts(
   frameRpm: Float64Array,
   binHz: number,
   holdS = 0.3,
+  minDwellS = VOTE_WINDOW_S,
+): CarrierShift[] {
+  const steps = carrierSteps(carrier, frameTimeS, frameRpm, binHz, holdS);
+  return withoutPassingLevels(steps, frameTimeS, frameRpm, carrier.length, binHz, minDwellS);
+}
+
+/**
+ * A level held for less than detectCarrier's vote window between two others is an artefact of the
+ * switch, not a level: while the window straddles the switch the two carriers' votes are split and a
+ * third line (an order sweeping through) can win for up to about the window's length. Such a pair of
+ * steps A → B → C becomes A → C at their middle, and A → B → A goes.
+ */
+function withoutPassingLevels(
+  steps: CarrierShift[],
+  frameTimeS: (f: number) => number,
+  frameRpm: Float64Array,
+  frames: number,
+  binHz: number,
+  minDwellS: number,
+): CarrierShift[] {
+  const out: CarrierShift[] = [];
+  for (const step of steps) {
+    const prev = out.at(-1);
+    if (prev && step.t - prev.t < minDwellS) {
+      out.pop();
+      if (Math.abs(step.toHz - prev.fromHz) > Math.max(3 * binHz, 0.02 * prev.fromHz)) {
+        const t = (prev.t + step.t) / 2;
+        out.push({ t, rpm: interpolateRpm(frameTimeS, frameRpm, t, frames), fromHz: prev.fromHz, toHz: step.toHz });
+      }
+      continue;
+    }
+    out.push(step);
+  }
+  return out;
+}
+
+function carrierSteps(
+  carrier: Float64Array,
+  frameTimeS: (f: number) => number,
+  frameRpm: Float64Array,
+  binHz: number,
+  holdS: number,
 ): CarrierShift[] {
   const shifts: CarrierShift[] = [];
   const tol = (hz: number) => Math.max(3 * binHz, 0.02 * hz);

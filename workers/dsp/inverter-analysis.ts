@@ -3,7 +3,8 @@
  * shifts, a spread carrier, the pole pairs and the family pattern, the order and family tracks against
  * speed, and the strongest families. Shared by the Bench's workers and the batch CLI.
  */
-import { carrierShifts, detectCarrier, runSpreadHz } from './carrier';
+import { detectCarrier, runSpreadHz } from './carrier';
+import { carrierShifts } from './carrier-shifts';
 import { carrierTonality, TONE_FAMILIES, type ToneFinding } from './carrier-tonality';
 import { polePairsFromFundamental } from './electrical-fundamental';
 import { allowedN, inferPolePairs, observeSidebandOffsets, withFundamental, type FamilyPattern } from './pole-pairs';

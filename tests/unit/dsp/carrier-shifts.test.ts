@@ -6,7 +6,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { analyseSignal } from '../../support/analyse-signal';
-import { carrierShifts, VOTE_WINDOW_S } from '../../../workers/dsp/carrier';
+import { VOTE_WINDOW_S } from '../../../workers/dsp/carrier';
+import { carrierShifts } from '../../../workers/dsp/carrier-shifts';
 import { synthesiseDrive } from '../../../seeds/synthetic-drive';
 
 const HOP_S = 0.04;

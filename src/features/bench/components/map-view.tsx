@@ -11,6 +11,7 @@ import type { BenchStores } from '../session/live-stores';
 import type { BenchMark } from '../view-state/view-snapshot';
 import { useListenIfAny } from '../listen/listen-context';
 import type { PlayHead } from '../listen/listen-controller';
+import { useMapDetail } from './use-map-detail';
 import { useMapGestures, type GestureProps } from './use-map-gestures';
 
 interface Props extends GestureProps {
@@ -64,6 +65,7 @@ export function MapView(props: Props) {
   const [scheduler] = useState(() => createDrawScheduler((layers) => draw.current(layers)));
   const { handlers, drag } = useMapGestures(mapRef, boxRef, stores, props, scheduler);
   const listen = useListenIfAny();
+  const detail = useMapDetail(raster, stores, { lut, topDb, rangeDb }, () => scheduler.request({ map: true }), boxRef);
 
   draw.current = (n: Layers) => {
     const p = latest.current;
@@ -77,6 +79,9 @@ export function MapView(props: Props) {
     const hasMap = p.raster !== null;
     if (n.map && mapRef.current) {
       paintLevels(mapRef.current, imageRef.current, p.raster, view, p.swapped);
+      // zoomed into a long map: its part at one pixel per column, over the pooled image
+      const d = detail.current;
+      if (d) paintLevels(mapRef.current, d.image, d.part, view, p.swapped, true);
       const r = p.raster;
       if (r && imageRef.current && view && p.markPainted && r.columnsDone > 0 && !firstPainted.current.has(r)) {
         firstPainted.current.add(r);

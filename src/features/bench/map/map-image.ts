@@ -6,9 +6,10 @@
  * Pixels hold colour indices (0 = not computed yet, 1…256 = lookup entry + 1), so another colour scale
  * recolours without reading the levels again. Pan and zoom only draw a source rectangle (drawImage).
  */
-import type { MapRaster } from './map-raster';
+import type { LevelColumns } from './map-raster';
 
-const MAX_WIDTH = 4096;
+/** Image columns at most: a longer map pools columns by their maximum (a zoomed-in view draws its part). */
+export const MAX_WIDTH = 4096;
 
 interface Level {
   kx: number;
@@ -22,7 +23,7 @@ interface Level {
 }
 
 /** Colour indices of base pixel columns [x0, x1): each pixel the maximum of the cells it covers. */
-function paintIndices(raster: MapRaster, out: Uint16Array, width: number, height: number, topDb: number, rangeDb: number, x0: number, x1: number) {
+function paintIndices(raster: LevelColumns, out: Uint16Array, width: number, height: number, topDb: number, rangeDb: number, x0: number, x1: number) {
   const { columns, rows, levels, columnsDone } = raster;
   const floorDb = topDb - rangeDb;
   const scale = 255 / rangeDb;
@@ -58,7 +59,7 @@ export class MapImage {
   private readonly levels = new Map<string, Level>();
 
   constructor(
-    readonly raster: MapRaster,
+    readonly raster: LevelColumns,
     private lut: Uint8Array,
     private topDb: number,
     private rangeDb: number,

@@ -30,6 +30,34 @@ export const MAX_COLUMNS = 16384;
 
 export type RasterListener = (fromColumn: number, toColumn: number) => void;
 
+/** What a painted map image is made from: columns of levels along x (a MapRaster, or part of one). */
+export interface LevelColumns {
+  readonly columns: number;
+  readonly rows: number;
+  /** Column-major: levels[c·rows + r] */
+  readonly levels: Float32Array;
+  readonly columnsDone: number;
+  readonly xSpan: [number, number];
+  readonly frequencySpanHz: [number, number];
+}
+
+/**
+ * Columns [c0, c1) of a raster, sharing its levels: the part of a long map a zoomed-in view shows, to be
+ * drawn one image pixel per column where the whole map's image pools several.
+ */
+export function rasterPart(r: MapRaster, c0: number, c1: number): LevelColumns {
+  const [x0, x1] = r.xSpan;
+  const width = (x1 - x0) / r.columns;
+  return {
+    columns: c1 - c0,
+    rows: r.rows,
+    levels: r.levels.subarray(c0 * r.rows, c1 * r.rows),
+    columnsDone: Math.max(0, Math.min(c1, r.columnsDone) - c0),
+    xSpan: [x0 + c0 * width, x0 + c1 * width],
+    frequencySpanHz: r.frequencySpanHz,
+  };
+}
+
 export class MapRaster {
   readonly columns: number;
   readonly rows: number;

@@ -28,6 +28,9 @@ export function carrierShifts(
   return withoutPassingLevels(steps, frameTimeS, frameRpm, carrier.length, binHz, minDwellS);
 }
 
+/** Two carrier readings are one level within max(3 bins, 2 %) of it. */
+const sameLevel = (hz: number, level: number, binHz: number) => Math.abs(hz - level) <= Math.max(3 * binHz, 0.02 * level);
+
 /**
  * A level held for less than detectCarrier's vote window between two others is an artefact of the
  * switch, not a level: while the window straddles the switch the two carriers' votes are split and a
@@ -47,7 +50,7 @@ function withoutPassingLevels(
     const prev = out.at(-1);
     if (prev && step.t - prev.t < minDwellS) {
       out.pop();
-      if (Math.abs(step.toHz - prev.fromHz) > Math.max(3 * binHz, 0.02 * prev.fromHz)) {
+      if (!sameLevel(step.toHz, prev.fromHz, binHz)) {
         const t = (prev.t + step.t) / 2;
         out.push({ t, rpm: interpolateRpm(frameTimeS, frameRpm, t, frames), fromHz: prev.fromHz, toHz: step.toHz });
       }
@@ -66,7 +69,6 @@ function carrierSteps(
   holdS: number,
 ): CarrierShift[] {
   const shifts: CarrierShift[] = [];
-  const tol = (hz: number) => Math.max(3 * binHz, 0.02 * hz);
   let level = NaN;
   let lastAtLevel = -1;
   let candidateStart = -1;
@@ -78,7 +80,7 @@ function carrierSteps(
       lastAtLevel = f;
       continue;
     }
-    if (Math.abs(v - level) <= tol(level)) {
+    if (sameLevel(v, level, binHz)) {
       level = level + (v - level) * 0.1; // follows a slow drift
       lastAtLevel = f;
       candidateStart = -1;

@@ -30,6 +30,21 @@ export interface SampleFill {
   subscribe(listener: () => void): () => void;
 }
 
+/** The count of samples in, told to whoever listens (the map, which computes the columns they allow). */
+export class SampleCount implements SampleFill {
+  samplesIn = 0;
+  private readonly listeners = new Set<() => void>();
+  subscribe(listener: () => void): () => void {
+    this.listeners.add(listener);
+    return () => this.listeners.delete(listener);
+  }
+  set(n: number): void {
+    if (n <= this.samplesIn) return;
+    this.samplesIn = n;
+    for (const l of [...this.listeners]) l();
+  }
+}
+
 export interface MapJob {
   layout: StftLayout;
   /** Resolves once every chunk has been delivered; rejects on an error, or with an AbortError on cancel. */

@@ -5,21 +5,8 @@
  * path (no Worker in Node), the same scheduling as with workers.
  */
 import { describe, expect, it } from 'vitest';
-import { startMap, type SampleFill } from '../../../src/lib/workers/analysis-pool';
+import { SampleCount, startMap } from '../../../src/lib/workers/analysis-pool';
 import { chunkSampleRange } from '../../../workers/dsp/map-chunk';
-
-class TestFill implements SampleFill {
-  samplesIn = 0;
-  private readonly listeners = new Set<() => void>();
-  subscribe(l: () => void) {
-    this.listeners.add(l);
-    return () => this.listeners.delete(l);
-  }
-  set(n: number) {
-    this.samplesIn = n;
-    for (const l of [...this.listeners]) l();
-  }
-}
 
 function signal(n: number, fs: number): Float32Array {
   return Float32Array.from({ length: n }, (_, i) => Math.sin((2 * Math.PI * 1000 * i) / fs) + 0.1 * Math.sin((2 * Math.PI * 3170 * i) / fs));
@@ -40,7 +27,7 @@ describe('the map of a channel still being read', () => {
   it('computes each chunk only once its samples are in, and ends equal to the map of the whole channel', async () => {
     const reference = await wholeMap(full, fs, settings);
     const filling = new Float32Array(full.length);
-    const fill = new TestFill();
+    const fill = new SampleCount();
     const parts: Float32Array[] = [];
     let violations = 0;
     const job = startMap(
@@ -68,7 +55,7 @@ describe('the map of a channel still being read', () => {
   });
 
   it('waits, with nothing computed, while no samples are in', async () => {
-    const fill = new TestFill();
+    const fill = new SampleCount();
     let chunks = 0;
     const job = startMap(new Float32Array(full.length), fs, settings, () => chunks++, undefined, { framesPerChunk: 16, filling: fill });
     await new Promise((r) => setTimeout(r, 50));

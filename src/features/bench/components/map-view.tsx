@@ -81,7 +81,7 @@ export function MapView(props: Props) {
       paintLevels(mapRef.current, imageRef.current, p.raster, view, p.swapped);
       // zoomed into a long map: its part at one pixel per column, over the pooled image
       const d = detail.current;
-      if (d) paintLevels(mapRef.current, d.image, d.part, view, p.swapped, true);
+      if (d) paintLevels(mapRef.current, d, d.raster, view, p.swapped, true);
       const r = p.raster;
       if (r && imageRef.current && view && p.markPainted && r.columnsDone > 0 && !firstPainted.current.has(r)) {
         firstPainted.current.add(r);

@@ -1,13 +1,8 @@
 import { useEffect, useRef, type RefObject } from 'react';
 import { MapImage, MAX_WIDTH } from '../map/map-image';
-import { rasterPart, type LevelColumns, type MapRaster } from '../map/map-raster';
+import { rasterPart, type MapRaster } from '../map/map-raster';
 import type { BenchStores } from '../session/live-stores';
 
-/** A zoomed-in view's part of a long map, painted one image pixel per raster column. */
-export interface MapDetail {
-  part: LevelColumns;
-  image: MapImage;
-}
 
 /** After the view stops moving for this long, its part is painted finer. */
 const SETTLE_MS = 120;
@@ -24,8 +19,9 @@ export function useMapDetail(
   look: { lut: Uint8Array; topDb: number; rangeDb: number },
   redraw: () => void,
   boxRef: RefObject<HTMLDivElement | null>,
-): RefObject<MapDetail | null> {
-  const detail = useRef<MapDetail | null>(null);
+): RefObject<MapImage | null> {
+  // the image of the part in view (its `raster` is the part: columns of the map's own levels)
+  const detail = useRef<MapImage | null>(null);
   const lookRef = useRef(look);
   lookRef.current = look;
   const redrawRef = useRef(redraw);
@@ -45,14 +41,14 @@ export function useMapDetail(
       const c1 = view ? Math.min(raster.columns, Math.ceil((view.x[1] - x0) / width) + 1) : raster.columns;
       const wanted = view !== null && raster.columnsDone >= raster.columns && c1 - c0 <= MAX_WIDTH && c1 > c0;
       const shown = detail.current;
-      if (wanted && shown && shown.part.xSpan[0] <= x0 + c0 * width && shown.part.xSpan[1] >= x0 + c1 * width) return;
+      if (wanted && shown && shown.raster.xSpan[0] <= x0 + c0 * width && shown.raster.xSpan[1] >= x0 + c1 * width) return;
       if (!wanted && !shown) return;
       // a margin on each side, so a small pan stays within the part
       const margin = wanted ? Math.floor((MAX_WIDTH - (c1 - c0)) / 2) : 0;
       const a = Math.max(0, c0 - margin);
       const b = Math.min(raster.columns, c1 + margin);
       const { lut, topDb, rangeDb } = lookRef.current;
-      detail.current = wanted ? { part: rasterPart(raster, a, b), image: new MapImage(rasterPart(raster, a, b), lut, topDb, rangeDb) } : null;
+      detail.current = wanted ? new MapImage(rasterPart(raster, a, b), lut, topDb, rangeDb) : null;
       if (boxRef.current) boxRef.current.dataset.detail = wanted ? `${a}-${b}` : '';
       redrawRef.current();
     };
@@ -76,10 +72,10 @@ export function useMapDetail(
   }, [raster, stores, boxRef]);
 
   useEffect(() => {
-    detail.current?.image.setLut(look.lut);
+    detail.current?.setLut(look.lut);
   }, [look.lut]);
   useEffect(() => {
-    detail.current?.image.setRange(look.topDb, look.rangeDb);
+    detail.current?.setRange(look.topDb, look.rangeDb);
   }, [look.topDb, look.rangeDb]);
 
   return detail;

@@ -1,7 +1,7 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { DecodedWithFingerprint } from '../../../../workers/decode.worker';
 import { decodeInWorker, type DecodeJob } from '../../../lib/workers/decode-client';
-import type { SampleFill } from '../../../lib/workers/analysis-pool';
+import { SampleCount, type SampleFill } from '../../../lib/workers/analysis-pool';
 import { errorMessage } from '../../../lib/error-message';
 import type { OpenRecording } from '../hooks/use-recording-reader';
 
@@ -16,21 +16,6 @@ export interface FillingChannels {
   indices: number[];
   samples: Float32Array[];
   fill: SampleFill;
-}
-
-/** The count of samples in, told to whoever listens (the map, which computes the columns they allow). */
-class Fill implements SampleFill {
-  samplesIn = 0;
-  private readonly listeners = new Set<() => void>();
-  subscribe(listener: () => void): () => void {
-    this.listeners.add(listener);
-    return () => this.listeners.delete(listener);
-  }
-  set(n: number): void {
-    if (n <= this.samplesIn) return;
-    this.samplesIn = n;
-    for (const l of [...this.listeners]) l();
-  }
 }
 
 export interface RecordingChannels {
@@ -78,7 +63,7 @@ export function useRecordingChannels(opened: OpenRecording): RecordingChannels {
     // with the first megabytes read, not after the whole file (which for gigabytes takes a while).
     const streams = header.format === 'wav' && globalThis.crossOriginIsolated && typeof SharedArrayBuffer !== 'undefined';
     const into = streams ? indices.map(() => new Float32Array(new SharedArrayBuffer(header.frames * 4))) : undefined;
-    const fill = new Fill();
+    const fill = new SampleCount();
     if (into) setFilling({ indices, samples: into, fill });
     let shownAt = -Infinity;
     const j = decodeInWorker(opened.file, opened.entry.name, { channels: indices, ...(into ? { into } : {}), ...(opened.entry.csv ? { csv: opened.entry.csv } : {}) }, (fraction) => {
